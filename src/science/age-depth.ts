@@ -1,0 +1,50 @@
+/**
+ * Ocean depth against crustal age, forward and inverse. Depth d in m (basement depth, water-loaded),
+ * age t in Myr.
+ *  - Parsons & Sclater 1977 (JGR 82): d = 2500 + 350·√t (young), d = 6400 − 3200·e^(−t/62.8) (old).
+ *    We switch branches where they cross (≈ 26.27 Ma), so the curve is continuous and monotone.
+ *  - Stein & Stein 1992, GDH1 (Nature 359): d = 2600 + 365·√t (t < 20), d = 5651 − 2473·e^(−0.0278·t).
+ * Inverse: d shallower than the zero-age depth → 0; d at or beyond the asymptote → +Infinity (no
+ * finite age: the caller reports it).
+ */
+
+import { brent } from './root.js';
+
+export type AgeDepthCurve = 'GDH1' | 'PS77';
+
+const ps77Young = (t: number) => 2500 + 350 * Math.sqrt(t);
+const ps77Old = (t: number) => 6400 - 3200 * Math.exp(-t / 62.8);
+/** Age where the two Parsons & Sclater branches cross (≈ 26.27 Ma). */
+export const PS77_SWITCH = brent((t) => ps77Young(t) - ps77Old(t), 20, 40, 1e-12);
+
+const gdhYoung = (t: number) => 2600 + 365 * Math.sqrt(t);
+const gdhOld = (t: number) => 5651 - 2473 * Math.exp(-0.0278 * t);
+
+export function depthFromAge(t: number, curve: AgeDepthCurve = 'GDH1'): number {
+  if (t < 0) return NaN;
+  if (curve === 'PS77') return t < PS77_SWITCH ? ps77Young(t) : ps77Old(t);
+  return t < 20 ? gdhYoung(t) : gdhOld(t);
+}
+
+export function zeroAgeDepth(curve: AgeDepthCurve = 'GDH1'): number {
+  return curve === 'PS77' ? 2500 : 2600;
+}
+
+export function asymptoticDepth(curve: AgeDepthCurve = 'GDH1'): number {
+  return curve === 'PS77' ? 6400 : 5651;
+}
+
+export function ageFromDepth(d: number, curve: AgeDepthCurve = 'GDH1'): number {
+  if (d !== d) return NaN;
+  if (d <= zeroAgeDepth(curve)) return 0;
+  if (d >= asymptoticDepth(curve)) return Infinity;
+  if (curve === 'PS77') {
+    const dSwitch = ps77Young(PS77_SWITCH);
+    if (d < dSwitch) return ((d - 2500) / 350) ** 2;
+    return -62.8 * Math.log((6400 - d) / 3200);
+  }
+  // GDH1 steps by 0.4 m at 20 Ma; a depth inside that step maps to 20 Ma.
+  if (d < gdhYoung(20)) return ((d - 2600) / 365) ** 2;
+  if (d < gdhOld(20)) return 20;
+  return -Math.log((5651 - d) / 2473) / 0.0278;
+}
