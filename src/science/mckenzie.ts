@@ -122,6 +122,7 @@ export function makeBetaInverter(t: number, p: McKenzieParams, form: ThermalForm
   let monotone = true;
   for (let k = 1; k <= samples; k++) if (!(ss[k] > ss[k - 1])) monotone = false;
   const sMax = ss[samples];
+  const S = (g: number) => totalSubsidence(g >= 1 ? Infinity : 1 / (1 - g), t, p, form);
   const invert = (Y: number): number => {
     if (!(Y > 0)) return Y === Y ? 1 : NaN;
     if (Y >= sMax) return Infinity;
@@ -133,8 +134,17 @@ export function makeBetaInverter(t: number, p: McKenzieParams, form: ThermalForm
       if (ss[mid] < Y) lo = mid;
       else hi = mid;
     }
-    const f = (g: number) => totalSubsidence(g >= 1 ? Infinity : 1 / (1 - g), t, p, form) - Y;
-    const g = brent(f, gs[lo], gs[hi], 1e-13);
+    // Secant steps from the table's linear estimate (S is smooth in γ), kept inside the bracket;
+    // Brent takes over if they have not reached 1e-6 m.
+    const slope = (ss[hi] - ss[lo]) / (gs[hi] - gs[lo]);
+    let g0 = gs[lo] + (Y - ss[lo]) / slope;
+    let f0 = S(g0) - Y;
+    for (let it = 0; it < 3 && Math.abs(f0) > 1e-6; it++) {
+      const g1 = Math.min(gs[hi], Math.max(gs[lo], g0 - f0 / slope));
+      g0 = g1;
+      f0 = S(g0) - Y;
+    }
+    const g = Math.abs(f0) <= 1e-6 ? g0 : brent((x) => S(x) - Y, gs[lo], gs[hi], 1e-13);
     return g >= 1 ? Infinity : 1 / (1 - g);
   };
   return { invert, sMax, monotone };

@@ -1,0 +1,91 @@
+/**
+ * Benchmarks: `npm run bench [-- --size 4096]`. Prints our figures beside reference implementations.
+ * Not a test: figures depend on the machine; the README records the ones measured.
+ */
+
+import { writeArrayBuffer } from 'geotiff';
+import { crsFromEpsg } from '../src/crs/registry.js';
+import { derive } from '../src/derive/derive.js';
+import { writeGeoTiff } from '../src/io/geotiff-write.js';
+import { resolveParams } from '../src/params.js';
+import { betaFromSubsidence, MCKENZIE_1978 } from '../src/science/mckenzie.js';
+import { waterLoadedDepthCompacted } from '../src/science/unloading.js';
+import { LITHOLOGIES } from '../src/science/compaction.js';
+import { prng } from '../fixtures/demo-margin.js';
+
+const args = process.argv.slice(2);
+const size = Number(args[args.indexOf('--size') + 1] || 4096) || 4096;
+
+function rssMB(): number {
+  return process.memoryUsage().rss / 2 ** 20;
+}
+
+function time<T>(f: () => T): [T, number] {
+  const t0 = performance.now();
+  const r = f();
+  return [r, performance.now() - t0];
+}
+
+function syntheticInputs(n: number) {
+  const rnd = prng(5);
+  const N = n * n;
+  const seabed = new Float32Array(N);
+  const basement = new Float32Array(N);
+  const moho = new Float32Array(N);
+  for (let j = 0; j < n; j++) {
+    for (let i = 0; i < n; i++) {
+      const k = j * n + i;
+      const u = i / n;
+      const tc = Math.max(0, 32_000 * (1 - 1.3 * u)) + (u > 0.85 ? 7000 : 0);
+      seabed[k] = 200 + 4800 * u + 20 * rnd();
+      basement[k] = seabed[k] + 1000 + 4000 * Math.sin(Math.PI * u);
+      moho[k] = basement[k] + tc;
+    }
+  }
+  return { seabed, basement, moho };
+}
+
+const rows: [string, string, string][] = [];
+const rss0 = rssMB();
+console.log(`Taperline benchmarks (node ${process.version}); grid ${size} × ${size} = ${(size * size / 1e6).toFixed(1)} M cells`);
+
+// 1. Derived grids for a size² analysis grid (issue: no out-of-memory at 4096²).
+{
+  const inputs = syntheticInputs(size);
+  const p = resolveParams({ riftAge: 100 });
+  let peak = rssMB();
+  const timer = setInterval(() => (peak = Math.max(peak, rssMB())), 50);
+  const [d, ms] = time(() => derive(inputs, p));
+  clearInterval(timer);
+  peak = Math.max(peak, rssMB());
+  rows.push(['derive: all 14 grids', `${(ms / 1000).toFixed(2)} s, ${((size * size) / (ms / 1000) / 1e6).toFixed(2)} M cells/s`, `peak RSS ${peak.toFixed(0)} MB (start ${rss0.toFixed(0)} MB)`]);
+  void d;
+  // Reference: the same unloading + β-from-subsidence done naively per cell with a fresh Brent solve
+  // on a 1/64 sample (extrapolated), as a direct use of the published formulas would do it.
+  const mk = { ...MCKENZIE_1978, tc: p.tc0, rhoMantle: p.rhoMantle };
+  const [, msRef] = time(() => {
+    for (let k = 0; k < inputs.seabed.length; k += 64) {
+      const w = inputs.seabed[k];
+      const s = inputs.basement[k] - w;
+      const Y = waterLoadedDepthCompacted(w, s, LITHOLOGIES.shale, p.rhoMantle, p.rhoWater);
+      betaFromSubsidence(Y, 100, mk);
+    }
+  });
+  rows.push(['reference: per-cell Brent β-from-subsidence only', `${((msRef * 64) / 1000).toFixed(2)} s (extrapolated from 1/64)`, '']);
+}
+
+// 2. GeoTIFF writing, ours beside geotiff.js's writer (2000 × 2000 Float32).
+{
+  const n = 2000;
+  const v = new Float32Array(n * n).map((_, k) => Math.sin(k * 1e-3));
+  const geom = { nx: n, ny: n, x0: 0, y0: 0, dx: 1, dy: -1, registration: 'area' as const, crs: crsFromEpsg(32709) };
+  const [ours, msOurs] = time(() => writeGeoTiff(geom, v, { noData: 'nan' }));
+  const [, msRef] = time(() =>
+    writeArrayBuffer(v, { width: n, height: n, ModelPixelScale: [1, 1, 0], ModelTiepoint: [0, 0, 0, 0, 0, 0], GeographicTypeGeoKey: 4326, GTModelTypeGeoKey: 2 } as never),
+  );
+  rows.push(['GeoTIFF write 2000² Float32 (ours)', `${msOurs.toFixed(0)} ms, ${(ours.length / 2 ** 20).toFixed(1)} MB`, `geotiff.js writeArrayBuffer: ${msRef.toFixed(0)} ms`]);
+}
+
+const w0 = Math.max(...rows.map((r) => r[0].length));
+const w1 = Math.max(...rows.map((r) => r[1].length));
+for (const r of rows) console.log(`${r[0].padEnd(w0)}  ${r[1].padEnd(w1)}  ${r[2]}`);

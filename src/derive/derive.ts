@@ -1,0 +1,228 @@
+/**
+ * Per-cell derived grids from seabed, top basement and Moho on one analysis geometry.
+ * One pass over typed arrays; no allocation inside the loop. Every awkward cell is counted by kind:
+ *  - Moho above basement by more than mohoTolerance: pick error → no data (counted);
+ *    by less: zero crust (β = +∞, γ = 1);
+ *  - basement above seabed by more than basementTolerance: pick error → no data; by less: no sediment;
+ *  - seabed above sea level (land): water depth 0; unloading and subsidence not computed there;
+ *  - crust thicker than tc0 (β < 1): kept as computed and counted (tc0 may be too small);
+ *  - basement but no Moho: "Moho not imaged" (not "no data"): thickness-based grids NaN, others kept.
+ */
+
+import { ageFromDepth, type AgeDepthCurve } from '../science/age-depth.js';
+import { LITHOLOGIES, type Lithology } from '../science/compaction.js';
+import { initialSubsidencePerGamma, makeBetaInverter, thermalSubsidence, type McKenzieParams } from '../science/mckenzie.js';
+import type { Params } from '../params.js';
+import { DERIVED, type DerivedName } from './grids.js';
+
+export interface DeriveInput {
+  /** Depths in metres positive down, NaN = no data; one length for all. seabed may be null. */
+  readonly seabed: Float32Array | null;
+  readonly basement: Float32Array;
+  readonly moho: Float32Array;
+}
+
+export interface DeriveFlags {
+  noData: number;
+  mohoAboveBasement: number;
+  zeroCrust: number;
+  mohoNotImaged: number;
+  basementAboveSeabed: number;
+  basementAtSeabed: number;
+  land: number;
+  betaBelowOne: number;
+  subsidenceBeyondInfinite: number;
+  noSubsidence: number;
+  ageBeyondAsymptote: number;
+}
+
+export interface Derived {
+  readonly grids: Record<DerivedName, Float32Array>;
+  readonly flags: DeriveFlags;
+  readonly warnings: string[];
+  /** A data-based suggestion for tc0 (m): shown to the user, never applied. NaN if none. */
+  readonly suggestedTc0: number;
+}
+
+export function lithologyOf(p: Params): Lithology {
+  if (p.lithology === 'custom') return { name: 'custom', phi0: p.customPhi0, lambda: p.customLambda, rhoGrain: p.customRhoGrain };
+  return LITHOLOGIES[p.lithology];
+}
+
+export function mckenzieOf(p: Params): McKenzieParams {
+  return {
+    a: p.lithosphereThickness,
+    tc: p.tc0,
+    Tm: p.mantleTemperature,
+    alpha: p.thermalExpansion,
+    rhoMantle: p.rhoMantle,
+    rhoCrust: p.rhoCrust,
+    rhoWater: p.rhoWater,
+    tau: p.thermalTau,
+  };
+}
+
+export function derive(input: DeriveInput, p: Params): Derived {
+  const n = input.basement.length;
+  if (input.moho.length !== n || (input.seabed && input.seabed.length !== n)) {
+    throw new Error('derive: seabed, basement and Moho must share one analysis grid');
+  }
+  const grids = Object.fromEntries(DERIVED.map((d) => [d.name, new Float32Array(n)])) as Record<DerivedName, Float32Array>;
+  const flags: DeriveFlags = {
+    noData: 0, mohoAboveBasement: 0, zeroCrust: 0, mohoNotImaged: 0, basementAboveSeabed: 0, basementAtSeabed: 0,
+    land: 0, betaBelowOne: 0, subsidenceBeyondInfinite: 0, noSubsidence: 0, ageBeyondAsymptote: 0,
+  };
+  const warnings: string[] = [];
+
+  const {
+    tc0, rhoMantle: rm, rhoCrust: rc, rhoWater: rw, mohoTolerance, basementTolerance, riftAge, ageDepthUncertainty: dAge,
+  } = p;
+  const curve: AgeDepthCurve = p.ageCurve;
+  const other: AgeDepthCurve = curve === 'GDH1' ? 'PS77' : 'GDH1';
+  const lith = lithologyOf(p);
+  const compaction = p.sedimentMode === 'compaction';
+  const mk = mckenzieOf(p);
+  const siPerGamma = initialSubsidencePerGamma(mk);
+  const haveAge = riftAge !== null;
+  const inverter = haveAge ? makeBetaInverter(riftAge, mk, p.thermalForm) : null;
+  if (inverter && !inverter.monotone) warnings.push('McKenzie subsidence is not monotone in β for these parameters: β from subsidence solved cell by cell');
+  if (!haveAge) warnings.push('time since rifting not given: predicted depth, subsidence residual and β from subsidence are not computed');
+  if (!input.seabed) warnings.push('no seabed grid: water depth, sediment, unloading, subsidence and age grids are not computed');
+
+  const g = grids;
+  const seabed = input.seabed;
+  const basement = input.basement;
+  const moho = input.moho;
+  const airyK = 1 / (rm - rc);
+  const hist = new Uint32Array(1001); // 100 m bins of crustal thickness, for the tc0 suggestion
+
+  for (let k = 0; k < n; k++) {
+    const b = basement[k];
+    const m = moho[k];
+    const sb = seabed ? seabed[k] : NaN;
+    // Defaults: no data everywhere, filled below as far as the inputs allow.
+    let tc = NaN;
+    let w = NaN;
+    let s = NaN;
+    let ok = b === b;
+    if (seabed && ok && sb === sb) {
+      s = b - sb;
+      if (s < 0) {
+        if (-s > basementTolerance) {
+          flags.basementAboveSeabed++;
+          ok = false;
+        } else {
+          flags.basementAtSeabed++;
+          s = 0;
+        }
+      }
+      w = sb;
+      if (w < 0) {
+        flags.land++;
+        w = 0;
+      }
+    }
+    if (b !== b || (seabed && sb !== sb)) flags.noData++;
+    if (!ok) {
+      for (let q = 0; q < DERIVED.length; q++) g[DERIVED[q].name][k] = NaN;
+      continue;
+    }
+    if (m === m) {
+      tc = m - b;
+      if (tc < 0) {
+        if (-tc > mohoTolerance) {
+          flags.mohoAboveBasement++;
+          tc = NaN;
+        } else {
+          flags.zeroCrust++;
+          tc = 0;
+        }
+      } else if (tc === 0) flags.zeroCrust++;
+    } else {
+      flags.mohoNotImaged++;
+    }
+    const beta = tc === tc ? (tc === 0 ? Infinity : tc0 / tc) : NaN;
+    if (beta < 1) flags.betaBelowOne++;
+    const gamma = tc === tc ? 1 - tc / tc0 : NaN;
+    g['water-depth'][k] = w;
+    g['sediment-thickness'][k] = s;
+    g['crustal-thickness'][k] = tc;
+    g['beta-crust'][k] = beta;
+    g.gamma[k] = gamma;
+    if (tc === tc) hist[Math.min(1000, Math.floor(tc / 100))]++;
+
+    // Sediment unloading (Watts & Ryan 1976): Y = w + s·(ρm − ρ̄s)/(ρm − ρw).
+    let Y = NaN;
+    let rhoS = NaN;
+    const subaerial = seabed !== null && sb < 0;
+    if (w === w && s === s && !subaerial) {
+      if (compaction) {
+        const phi = s > 0 ? (lith.phi0 * lith.lambda * -Math.expm1(-s / lith.lambda)) / s : lith.phi0;
+        rhoS = phi * rw + (1 - phi) * lith.rhoGrain;
+      } else rhoS = p.rhoSediment;
+      Y = w + (s * (rm - rhoS)) / (rm - rw);
+    }
+    g['water-loaded-basement'][k] = Y;
+    // Airy: crust implied by the loads, and observed minus implied.
+    const tIso = Y === Y ? tc0 - (w * (rm - rw) + s * (rm - rhoS)) * airyK : NaN;
+    g['airy-thickness'][k] = tIso;
+    g['airy-residual'][k] = tc - tIso;
+
+    // McKenzie (1978) prediction for β_crust, and β from subsidence.
+    let pred = NaN;
+    let bs = NaN;
+    if (haveAge) {
+      if (beta === beta) {
+        const be = beta < 1 ? 1 : beta; // β < 1 is outside the model: no stretching predicted
+        const gam = be === Infinity ? 1 : 1 - 1 / be;
+        pred = siPerGamma * gam + thermalSubsidence(be, riftAge, mk, p.thermalForm);
+      }
+      if (Y === Y) {
+        bs = inverter!.invert(Y);
+        if (bs === Infinity) flags.subsidenceBeyondInfinite++;
+        else if (!(Y > 0)) flags.noSubsidence++;
+      }
+    }
+    g['predicted-water-loaded'][k] = pred;
+    g['subsidence-residual'][k] = Y - pred;
+    g['beta-subsidence'][k] = bs;
+    g['beta-ratio'][k] = beta === Infinity && bs === Infinity ? NaN : bs / beta;
+
+    // Indicative oceanic age: widest of both curves over Y ± the depth uncertainty.
+    let aMin = NaN;
+    let aMax = NaN;
+    if (Y === Y) {
+      aMin = Math.min(ageFromDepth(Y - dAge, curve), ageFromDepth(Y - dAge, other));
+      aMax = Math.max(ageFromDepth(Y + dAge, curve), ageFromDepth(Y + dAge, other));
+      if (ageFromDepth(Y, curve) === Infinity) flags.ageBeyondAsymptote++;
+    }
+    g['oceanic-age-min'][k] = aMin;
+    g['oceanic-age-max'][k] = aMax;
+  }
+
+  if (flags.mohoAboveBasement > 0.5 * n) {
+    warnings.push(`Moho above basement in ${flags.mohoAboveBasement} of ${n} cells: are the Moho and basement files swapped?`);
+  } else if (flags.mohoAboveBasement) {
+    warnings.push(`${flags.mohoAboveBasement} cells with Moho above basement by more than ${mohoTolerance} m: pick errors, set to no data`);
+  }
+  if (flags.basementAboveSeabed) warnings.push(`${flags.basementAboveSeabed} cells with basement above seabed by more than ${basementTolerance} m: pick errors, set to no data`);
+  if (flags.land) warnings.push(`${flags.land} cells above sea level: water depth 0; unloading, subsidence and ages not computed there`);
+  if (flags.betaBelowOne) warnings.push(`${flags.betaBelowOne} cells with crust thicker than tc0 = ${tc0} m (β < 1): consider a larger reference thickness`);
+  if (flags.subsidenceBeyondInfinite) warnings.push(`${flags.subsidenceBeyondInfinite} cells subside more than McKenzie's β = ∞ allows: β from subsidence reported as unbounded`);
+
+  // Suggest tc0 as the 95th percentile of crustal thickness (never applied).
+  let total = 0;
+  for (let q = 0; q < hist.length; q++) total += hist[q];
+  let suggestedTc0 = NaN;
+  if (total > 0) {
+    let acc = 0;
+    for (let q = 0; q < hist.length; q++) {
+      acc += hist[q];
+      if (acc >= 0.95 * total) {
+        suggestedTc0 = (q + 0.5) * 100;
+        break;
+      }
+    }
+  }
+  return { grids, flags, warnings, suggestedTc0 };
+}

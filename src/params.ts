@@ -1,0 +1,188 @@
+/**
+ * Every parameter of the pipeline in one typed object, with its unit, default, a one-line meaning and
+ * where the default comes from. The app builds its parameter panel from PARAM_SPECS, the CLI documents
+ * the params file from it, and the summary records the values used (defaults included).
+ */
+
+export type SedimentMode = 'compaction' | 'constant';
+export type LithologyName = 'shale' | 'sandstone' | 'chalk' | 'shaly-sandstone' | 'custom';
+
+export interface Params {
+  tc0: number;
+  rhoMantle: number;
+  rhoCrust: number;
+  rhoWater: number;
+  sedimentMode: SedimentMode;
+  lithology: LithologyName;
+  customPhi0: number;
+  customLambda: number;
+  customRhoGrain: number;
+  rhoSediment: number;
+  lithosphereThickness: number;
+  mantleTemperature: number;
+  thermalExpansion: number;
+  thermalTau: number;
+  thermalForm: 'series' | 'first-term';
+  riftAge: number | null;
+  ageCurve: 'GDH1' | 'PS77';
+  ageDepthUncertainty: number;
+  mohoTolerance: number;
+  basementTolerance: number;
+  taperThreshold: number;
+  couplingThickness: number;
+  neckingFraction: number;
+  oceanicMin: number;
+  oceanicMax: number;
+  oceanwardAzimuth: number | null;
+  minBlockArea: number;
+  smoothCells: number;
+}
+
+export interface ParamSpec {
+  readonly key: keyof Params;
+  readonly label: string;
+  readonly unit: string;
+  readonly group: 'crust' | 'densities' | 'sediment' | 'subsidence' | 'age' | 'picks' | 'domains' | 'lines';
+  readonly doc: string;
+  readonly source: string;
+  readonly min?: number;
+  readonly max?: number;
+  readonly choices?: readonly string[];
+  readonly nullable?: boolean;
+}
+
+export const DEFAULT_PARAMS: Readonly<Params> = {
+  tc0: 35_000,
+  rhoMantle: 3300,
+  rhoCrust: 2800,
+  rhoWater: 1000,
+  sedimentMode: 'compaction',
+  lithology: 'shale',
+  customPhi0: 0.55,
+  customLambda: 2500,
+  customRhoGrain: 2680,
+  rhoSediment: 2400,
+  lithosphereThickness: 125_000,
+  mantleTemperature: 1333,
+  thermalExpansion: 3.28e-5,
+  thermalTau: 62.8,
+  thermalForm: 'series',
+  riftAge: null,
+  ageCurve: 'GDH1',
+  ageDepthUncertainty: 500,
+  mohoTolerance: 500,
+  basementTolerance: 50,
+  taperThreshold: 2000,
+  couplingThickness: 10_000,
+  neckingFraction: 0.8,
+  oceanicMin: 5000,
+  oceanicMax: 9000,
+  oceanwardAzimuth: null,
+  minBlockArea: 0,
+  smoothCells: 0,
+};
+
+export const PARAM_SPECS: readonly ParamSpec[] = [
+  { key: 'tc0', label: 'Reference crustal thickness tc0', unit: 'm', group: 'crust', min: 5000, max: 80_000,
+    doc: 'Unstretched continental crust; β = tc0/tc. Also McKenzie’s initial crustal thickness.', source: 'from memory: typical unstretched crust beside margins (30–40 km)' },
+  { key: 'rhoMantle', label: 'Mantle density ρm', unit: 'kg/m³', group: 'densities', min: 2500, max: 4000,
+    doc: 'One mantle density for the Airy balance, unloading and McKenzie’s ρ0.', source: 'common practice (Turcotte & Schubert use 3300)' },
+  { key: 'rhoCrust', label: 'Crust density ρc', unit: 'kg/m³', group: 'densities', min: 2000, max: 3500,
+    doc: 'Mean density of the crust.', source: 'common practice' },
+  { key: 'rhoWater', label: 'Sea-water density ρw', unit: 'kg/m³', group: 'densities', min: 900, max: 1100,
+    doc: 'Density of sea water and pore water.', source: 'common practice (1000–1030)' },
+  { key: 'sedimentMode', label: 'Sediment density model', unit: '', group: 'sediment', choices: ['compaction', 'constant'],
+    doc: 'Exponential compaction (Athy 1930) or one constant density.', source: 'Athy 1930; Sclater & Christie 1980' },
+  { key: 'lithology', label: 'Compaction lithology', unit: '', group: 'sediment', choices: ['shale', 'sandstone', 'chalk', 'shaly-sandstone', 'custom'],
+    doc: 'Porosity–depth parameters for the compaction model.', source: 'Sclater & Christie 1980 via Wangen 2010, Table 2.1' },
+  { key: 'customPhi0', label: 'Custom surface porosity φ0', unit: '', group: 'sediment', min: 0, max: 0.95,
+    doc: 'Used when the lithology is “custom”.', source: 'user choice' },
+  { key: 'customLambda', label: 'Custom compaction length λ', unit: 'm', group: 'sediment', min: 100, max: 20_000,
+    doc: 'Used when the lithology is “custom”: φ = φ0·exp(−z/λ).', source: 'user choice' },
+  { key: 'customRhoGrain', label: 'Custom grain density', unit: 'kg/m³', group: 'sediment', min: 2000, max: 3200,
+    doc: 'Used when the lithology is “custom”.', source: 'user choice' },
+  { key: 'rhoSediment', label: 'Constant sediment density', unit: 'kg/m³', group: 'sediment', min: 1100, max: 3000,
+    doc: 'Used when the sediment model is “constant”.', source: 'common practice (2200–2500 for post-rift sediment)' },
+  { key: 'lithosphereThickness', label: 'Lithosphere thickness a', unit: 'm', group: 'subsidence', min: 50_000, max: 300_000,
+    doc: 'Thickness of the thermal plate in McKenzie’s model.', source: 'McKenzie 1978 (125 km)' },
+  { key: 'mantleTemperature', label: 'Base-plate temperature Tm', unit: '°C', group: 'subsidence', min: 800, max: 2000,
+    doc: 'Temperature at the base of the plate.', source: 'McKenzie 1978 (1333 °C)' },
+  { key: 'thermalExpansion', label: 'Thermal expansion α', unit: '1/°C', group: 'subsidence', min: 1e-6, max: 1e-4,
+    doc: 'Volumetric thermal expansion coefficient.', source: 'McKenzie 1978 (3.28e-5)' },
+  { key: 'thermalTau', label: 'Thermal time constant τ', unit: 'Myr', group: 'subsidence', min: 1, max: 500,
+    doc: 'τ = a²/(π²κ); given explicitly (62.8 Myr in McKenzie’s set).', source: 'McKenzie 1978 (62.8 Myr)' },
+  { key: 'thermalForm', label: 'Thermal subsidence form', unit: '', group: 'subsidence', choices: ['series', 'first-term'],
+    doc: 'Whole Fourier series, or its first term (differs by up to ~740 m at large β).', source: 'McKenzie 1978' },
+  { key: 'riftAge', label: 'Time since rifting ended', unit: 'Myr', group: 'subsidence', min: 0, max: 500, nullable: true,
+    doc: 'Needed for the predicted depth, the residual and β from subsidence; empty = not computed.', source: 'user input (no default)' },
+  { key: 'ageCurve', label: 'Age–depth curve', unit: '', group: 'age', choices: ['GDH1', 'PS77'],
+    doc: 'Ocean depth against age for the indicative oceanic age.', source: 'Stein & Stein 1992 (GDH1); Parsons & Sclater 1977' },
+  { key: 'ageDepthUncertainty', label: 'Depth uncertainty for ages', unit: 'm', group: 'age', min: 0, max: 3000,
+    doc: 'Half-width of the depth band turned into the age range (residual depth anomalies, pick error).', source: 'common practice: residual depth anomalies of several hundred metres' },
+  { key: 'mohoTolerance', label: 'Moho-above-basement tolerance', unit: 'm', group: 'picks', min: 0, max: 5000,
+    doc: 'Moho above basement by less than this is zero crust (β unbounded); by more, a pick error.', source: 'a choice above typical pick noise' },
+  { key: 'basementTolerance', label: 'Basement-above-seabed tolerance', unit: 'm', group: 'picks', min: 0, max: 1000,
+    doc: 'Basement above seabed by less than this is outcropping basement (no sediment); by more, a pick error.', source: 'a choice above typical pick noise' },
+  { key: 'taperThreshold', label: 'Crustal taper threshold', unit: 'm', group: 'domains', min: 0, max: 10_000,
+    doc: 'Crust thinner than this is no longer counted as continental (crustal taper limit).', source: 'a choice above typical pick noise, not a published constant' },
+  { key: 'couplingThickness', label: 'Coupling thickness', unit: 'm', group: 'domains', min: 1000, max: 30_000,
+    doc: 'Thickness below which the whole crust is brittle (coupling line; necking/hyperextended limit).', source: 'Sutra et al. 2013 (~10 km), from memory' },
+  { key: 'neckingFraction', label: 'Necking limit (fraction of tc0)', unit: '', group: 'domains', min: 0.3, max: 1,
+    doc: 'Crust thinner than this fraction of tc0 is necked (β > 1/fraction).', source: 'common practice (0.8, β ≤ 1.25 proximal)' },
+  { key: 'oceanicMin', label: 'Typical oceanic crust, minimum', unit: 'm', group: 'domains', min: 0, max: 20_000,
+    doc: 'Oceanic crust thinner than this is flagged as atypical.', source: 'White, McKenzie & O’Nions 1992 (7.1 ± 0.8 km); Chen 1992 (~6 km)' },
+  { key: 'oceanicMax', label: 'Typical oceanic crust, maximum', unit: 'm', group: 'domains', min: 0, max: 30_000,
+    doc: 'Oceanic crust thicker than this is flagged as atypical (magmatic margins?).', source: 'White, McKenzie & O’Nions 1992' },
+  { key: 'oceanwardAzimuth', label: 'Oceanward azimuth', unit: '° from grid north', group: 'domains', min: 0, max: 360, nullable: true,
+    doc: 'Direction towards the ocean; empty = from a plane fit of water-loaded basement depth.', source: 'user input, or plane fit' },
+  { key: 'minBlockArea', label: 'Minimum mapped continental block', unit: 'km²', group: 'domains', min: 0, max: 1e6,
+    doc: 'Isolated continental blocks larger than this are kept and labelled; smaller ones join the transition.', source: 'user choice (0 = keep all)' },
+  { key: 'smoothCells', label: 'Grid smoothing before contouring', unit: 'cells', group: 'lines', min: 0, max: 20,
+    doc: 'Half-width of a NaN-aware box smoothing of the grid before lines are traced (0 = none).', source: 'user choice' },
+];
+
+export class ParamError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'ParamError';
+  }
+}
+
+/** Merge user values over the defaults and validate; unknown keys and impossible values are errors. */
+export function resolveParams(user: Partial<Record<string, unknown>> = {}): Params {
+  const p: Record<string, unknown> = { ...DEFAULT_PARAMS };
+  const known = new Map(PARAM_SPECS.map((s) => [s.key as string, s]));
+  for (const [k, v] of Object.entries(user)) {
+    const spec = known.get(k);
+    if (!spec) throw new ParamError(`unknown parameter "${k}" (known: ${[...known.keys()].join(', ')})`);
+    if (v === null || v === undefined || v === '') {
+      if (!spec.nullable) throw new ParamError(`parameter ${k} needs a value`);
+      p[k] = null;
+      continue;
+    }
+    if (spec.choices) {
+      if (typeof v !== 'string' || !spec.choices.includes(v)) throw new ParamError(`parameter ${k} must be one of ${spec.choices.join(', ')}; got ${JSON.stringify(v)}`);
+      p[k] = v;
+      continue;
+    }
+    const n = typeof v === 'number' ? v : typeof v === 'string' ? Number(v) : NaN;
+    if (!Number.isFinite(n)) throw new ParamError(`parameter ${k} must be a number; got ${JSON.stringify(v)}`);
+    if ((spec.min !== undefined && n < spec.min) || (spec.max !== undefined && n > spec.max)) {
+      throw new ParamError(`parameter ${k} = ${n} ${spec.unit} is outside ${spec.min}…${spec.max} ${spec.unit}`.trim());
+    }
+    p[k] = n;
+  }
+  const q = p as unknown as Params;
+  const fail = (m: string) => {
+    throw new ParamError(m);
+  };
+  if (!(q.rhoMantle > q.rhoCrust)) fail(`mantle density (${q.rhoMantle}) must exceed crust density (${q.rhoCrust})`);
+  if (!(q.rhoCrust > q.rhoWater)) fail(`crust density (${q.rhoCrust}) must exceed water density (${q.rhoWater})`);
+  if (!(q.rhoMantle > q.rhoSediment && q.rhoSediment > q.rhoWater)) fail(`sediment density (${q.rhoSediment}) must lie between water and mantle densities`);
+  if (!(q.customRhoGrain < q.rhoMantle)) fail('custom grain density must be below the mantle density');
+  if (!(q.taperThreshold < q.couplingThickness)) fail(`taper threshold (${q.taperThreshold} m) must be below the coupling thickness (${q.couplingThickness} m)`);
+  if (!(q.couplingThickness < q.neckingFraction * q.tc0)) fail(`coupling thickness (${q.couplingThickness} m) must be below the necking limit ${q.neckingFraction} × tc0 = ${q.neckingFraction * q.tc0} m`);
+  if (!(q.oceanicMin < q.oceanicMax)) fail('typical oceanic thickness: minimum must be below maximum');
+  if (q.tc0 >= q.lithosphereThickness) fail('reference crust must be thinner than the lithosphere');
+  return q;
+}
