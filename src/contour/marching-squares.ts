@@ -1,0 +1,186 @@
+/**
+ * Marching squares (the 2-D analogue of marching cubes, Lorensen & Cline 1987) on a row-major Float32
+ * grid, in index space: sample (i, j) sits at x = i, y = j (rows increase downward).
+ *
+ * - A sample is "above" when value ≥ level.
+ * - Isolines: cells with any NaN corner produce nothing, so lines stop at no data and at the grid
+ *   edge and never close around a hole.
+ * - Filled regions: NaN and the outside of the grid count as below, so every ring closes; rings run
+ *   through the outermost valid samples there.
+ * - Saddle cells are resolved with the asymptotic decider (Nielson & Hamann 1991): the bilinear saddle
+ *   value B* = (f00·f11 − f10·f01)/(f00 + f11 − f10 − f01) decides whether the above corners join.
+ * - Crossing points are computed once per cell edge in a canonical direction, so neighbouring cells
+ *   produce bit-identical vertices; segments are oriented with the above side on the right (in x-right,
+ *   y-down index space) and stitched through a hash of edge ids: linear in the number of segments.
+ * Output: flat positions [x0, y0, x1, y1, ...] with start indices, and a closed flag per line.
+ */
+
+export interface Lines {
+  /** Flat vertex coordinates in index space (or map space once transformed). */
+  readonly positions: Float64Array;
+  /** Index of the first vertex of each line; line k runs to starts[k+1] (or the end). */
+  readonly starts: Uint32Array;
+  /** 1 where the line is a closed ring (first vertex repeated at the end). */
+  readonly closed: Uint8Array;
+}
+
+export interface GridLike {
+  readonly values: ArrayLike<number>;
+  readonly nx: number;
+  readonly ny: number;
+}
+
+/** Interpolation parameter of the level crossing between values p and q (0 at p, 1 at q). */
+function crossT(p: number, q: number, level: number): number {
+  const fp = Number.isFinite(p);
+  const fq = Number.isFinite(q);
+  if (fp && fq) return (level - p) / (q - p);
+  if (!fp && !fq) return 0.5;
+  return fp ? 0 : 1; // the ring runs through the finite sample
+}
+
+interface Segments {
+  from: number[]; // edge ids
+  to: number[];
+  pts: number[]; // x1, y1, x2, y2 per segment
+}
+
+/**
+ * Trace the level set of `grid` at `level`. With fill = true, NaN counts as below and the grid is
+ * surrounded by "below", so the result is closed rings bounding {value ≥ level}.
+ */
+export function traceLevel(grid: GridLike, level: number, fill = false): Lines {
+  const { nx, ny } = grid;
+  const v = grid.values;
+  // For filling, work on a virtual grid padded by one sample of −∞ on every side.
+  const pad = fill ? 1 : 0;
+  const W = nx + 2 * pad;
+  const H = ny + 2 * pad;
+  const at = (i: number, j: number): number => {
+    const ii = i - pad;
+    const jj = j - pad;
+    if (ii < 0 || jj < 0 || ii >= nx || jj >= ny) return -Infinity;
+    const x = v[jj * nx + ii];
+    return fill && x !== x ? -Infinity : x;
+  };
+  const seg: Segments = { from: [], to: [], pts: [] };
+  // Edge ids on the (padded) lattice: horizontal edge (i,j)-(i+1,j) → 2(jW + i); vertical (i,j)-(i,j+1) → 2(jW + i) + 1.
+  const hId = (i: number, j: number) => 2 * (j * W + i);
+  const vId = (i: number, j: number) => 2 * (j * W + i) + 1;
+  const cx: number[] = new Array(4);
+  const cy: number[] = new Array(4);
+  const cid: number[] = new Array(4);
+  const ctype: number[] = new Array(4); // 1 = exit (above → below along the clockwise walk), 0 = entry
+
+  for (let j = 0; j < H - 1; j++) {
+    for (let i = 0; i < W - 1; i++) {
+      const a = at(i, j); // top-left
+      const b = at(i + 1, j); // top-right
+      const c = at(i + 1, j + 1); // bottom-right
+      const d = at(i, j + 1); // bottom-left
+      if (!fill && (a !== a || b !== b || c !== c || d !== d)) continue;
+      const A = a >= level;
+      const B = b >= level;
+      const C = c >= level;
+      const D = d >= level;
+      if (A === B && B === C && C === D) continue;
+      // Walk the cell boundary clockwise on screen: top (tl→tr), right (tr→br), bottom (br→bl), left (bl→tl).
+      let n = 0;
+      if (A !== B) {
+        const t = crossT(a, b, level);
+        cx[n] = i + t; cy[n] = j; cid[n] = hId(i, j); ctype[n] = A ? 1 : 0; n++;
+      }
+      if (B !== C) {
+        const t = crossT(b, c, level);
+        cx[n] = i + 1; cy[n] = j + t; cid[n] = vId(i + 1, j); ctype[n] = B ? 1 : 0; n++;
+      }
+      if (C !== D) {
+        const t = crossT(d, c, level); // canonical direction: left to right
+        cx[n] = i + t; cy[n] = j + 1; cid[n] = hId(i, j + 1); ctype[n] = C ? 1 : 0; n++;
+      }
+      if (D !== A) {
+        const t = crossT(a, d, level); // canonical direction: top to bottom
+        cx[n] = i; cy[n] = j + t; cid[n] = vId(i, j); ctype[n] = D ? 1 : 0; n++;
+      }
+      if (n === 2) {
+        const x = ctype[0] === 1 ? 0 : 1; // the exit crossing
+        push(seg, cid[x], cid[1 - x], cx[x], cy[x], cx[1 - x], cy[1 - x]);
+      } else {
+        // Saddle: crossings alternate exit/entry around the cell. Decide whether the centre is above.
+        const den = a + c - b - d;
+        const centre = Number.isFinite(den) && den !== 0 ? (a * c - b * d) / den : (a + b + c + d) / 4;
+        const joined = centre >= level;
+        for (let k = 0; k < 4; k++) {
+          if (ctype[k] !== 1) continue;
+          // Separate above corners: each exit pairs with the entry just before it; joined: just after.
+          const e = joined ? (k + 1) % 4 : (k + 3) % 4;
+          push(seg, cid[k], cid[e], cx[k], cy[k], cx[e], cy[e]);
+        }
+      }
+    }
+  }
+  return stitch(seg, pad);
+}
+
+function push(s: Segments, from: number, to: number, x1: number, y1: number, x2: number, y2: number): void {
+  s.from.push(from);
+  s.to.push(to);
+  s.pts.push(x1, y1, x2, y2);
+}
+
+/** Join oriented segments end to start through a hash of edge ids (linear time). */
+function stitch(s: Segments, pad: number): Lines {
+  const m = s.from.length;
+  const byFrom = new Map<number, number>();
+  const byTo = new Map<number, number>();
+  for (let k = 0; k < m; k++) {
+    byFrom.set(s.from[k], k);
+    byTo.set(s.to[k], k);
+  }
+  const used = new Uint8Array(m);
+  const out: number[] = [];
+  const starts: number[] = [];
+  const closed: number[] = [];
+  for (let k0 = 0; k0 < m; k0++) {
+    if (used[k0]) continue;
+    // Walk backwards to the start of an open line (or all the way round a ring).
+    let first = k0;
+    for (;;) {
+      const prev = byTo.get(s.from[first]);
+      if (prev === undefined || prev === k0 || used[prev]) break;
+      first = prev;
+    }
+    starts.push(out.length / 2);
+    out.push(s.pts[4 * first] - pad, s.pts[4 * first + 1] - pad);
+    let k = first;
+    for (;;) {
+      used[k] = 1;
+      out.push(s.pts[4 * k + 2] - pad, s.pts[4 * k + 3] - pad);
+      const next = byFrom.get(s.to[k]);
+      if (next === undefined || used[next]) break;
+      k = next;
+    }
+    closed.push(s.to[k] === s.from[first] ? 1 : 0);
+  }
+  return { positions: Float64Array.from(out), starts: Uint32Array.from(starts), closed: Uint8Array.from(closed) };
+}
+
+/** Number of lines, and the vertex range [begin, end) of line k. */
+export function lineCount(l: Lines): number {
+  return l.starts.length;
+}
+
+export function lineRange(l: Lines, k: number): [number, number] {
+  const begin = l.starts[k];
+  const end = k + 1 < l.starts.length ? l.starts[k + 1] : l.positions.length / 2;
+  return [begin, end];
+}
+
+/** Shoelace area of line k in its own coordinates (positive = clockwise on a y-down screen). */
+export function ringArea(l: Lines, k: number): number {
+  const [b, e] = lineRange(l, k);
+  const p = l.positions;
+  let s = 0;
+  for (let q = b; q < e - 1; q++) s += p[2 * q] * p[2 * q + 3] - p[2 * q + 2] * p[2 * q + 1];
+  return s / 2;
+}
