@@ -141,6 +141,8 @@ describe('marching squares: invariants', () => {
   });
 
   it('transposing the grid transposes the output; flipping it flips the output', () => {
+    const t = gridOf(22, 30, (i, j) => bumpy.values[i * 30 + j]);
+    const f = gridOf(30, 22, (i, j) => bumpy.values[(21 - j) * 30 + i]);
     const same = (p: [number, number][], q: [number, number][]) => {
       expect(p.length).toBe(q.length);
       for (const v of p) expect(q.some((w) => Math.abs(v[0] - w[0]) < 1e-5 && Math.abs(v[1] - w[1]) < 1e-5)).toBe(true);
