@@ -35,6 +35,7 @@ export interface Params {
   oceanicMax: number;
   oceanwardAzimuth: number | null;
   minBlockArea: number;
+  pickReach: number;
   smoothCells: number;
 }
 
@@ -79,6 +80,7 @@ export const DEFAULT_PARAMS: Readonly<Params> = {
   oceanicMax: 9000,
   oceanwardAzimuth: null,
   minBlockArea: 0,
+  pickReach: 5000,
   smoothCells: 0,
 };
 
@@ -137,6 +139,8 @@ export const PARAM_SPECS: readonly ParamSpec[] = [
     doc: 'Direction towards the ocean; empty = from a plane fit of water-loaded basement depth.', source: 'user input, or plane fit' },
   { key: 'minBlockArea', label: 'Minimum mapped continental block', unit: 'km²', group: 'domains', min: 0, max: 1e6,
     doc: 'Isolated continental blocks larger than this are kept and labelled; smaller ones join the transition.', source: 'user choice (0 = keep all)' },
+  { key: 'pickReach', label: 'Reach of a pick', unit: 'm', group: 'lines', min: 0, max: 100_000,
+    doc: 'Line pieces within this distance of a pick are labelled as placed by picks; farther ones by the proxy.', source: 'a choice: about the lateral resolution of one 2D section' },
   { key: 'smoothCells', label: 'Grid smoothing before contouring', unit: 'cells', group: 'lines', min: 0, max: 20,
     doc: 'Half-width of a NaN-aware box smoothing of the grid before lines are traced (0 = none).', source: 'user choice' },
 ];

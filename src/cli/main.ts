@@ -1,31 +1,251 @@
 #!/usr/bin/env node
-/** The `taperline` command: a thin shell over the core pipeline. */
+/** The `taperline` command: a thin shell over the core pipeline (src/pipeline.ts). */
 
-import { readFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { InputError } from '../io/errors.js';
+import { outputFiles } from '../export/outputs.js';
+import { ParamError, PARAM_SPECS, DEFAULT_PARAMS } from '../params.js';
+import { runPipeline, type PipelineInputs } from '../pipeline.js';
+import type { GridReadOptions } from '../io/geotiff-read.js';
+import type { LengthUnit, Sign } from '../io/detect.js';
+import { loadGrid, loadVectors } from './load.js';
 
-const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string };
+const here = dirname(fileURLToPath(import.meta.url));
+const pkg = JSON.parse(readFileSync(join(here, '../../package.json'), 'utf8')) as { version: string };
+
+const paramLines = PARAM_SPECS.map((s) => {
+  const d = DEFAULT_PARAMS[s.key];
+  const def = d === null ? 'none' : Array.isArray(s.choices) ? String(d) : `${d}${s.unit ? ' ' + s.unit : ''}`;
+  return `    ${s.key.padEnd(22)} ${s.doc} (default ${def}${s.choices ? `; one of ${s.choices.join(', ')}` : ''})`;
+}).join('\n');
 
 export const HELP = `taperline ${pkg.version} — map-view synthesis of rifted-margin depth grids
 
 Usage:
-  taperline --help        this text
-  taperline --version     the version
+  taperline synth --top-basement F --moho F [--seabed F] [options]
+  taperline demo [--out DIR]
+  taperline --help | --version
+
+synth: derive crustal thickness, β, γ, isostatic and subsidence grids, margin domains and the named
+boundaries from depth grids (GeoTIFF or XYZ text; metres or km, depth or elevation are detected).
+  --top-basement F     top-basement depth grid; it defines the analysis grid
+  --moho F             Moho depth grid (resampled onto the analysis grid if needed)
+  --seabed F           seabed (water bottom) grid; without it no water/sediment/subsidence grids
+  --licence F          licence polygon (GeoJSON); lines are clipped to it and areas reported inside
+  --lines F            existing seismic lines (GeoJSON LineStrings, property "name")
+  --picks F            interpreter picks (GeoJSON Points with "kind": continental-limit | oceanic-limit
+                       | onlap, and "line"): boundaries pass through them
+  --isochrons F        magnetic isochrons (GeoJSON LineStrings with "age_ma")
+  --crust F            crust-type polygons (GeoJSON, "crust": continental | oceanic | transition)
+  --params F.json      parameters (keys below); unknown keys are an error
+  --out DIR            output folder (default ./taperline-out)
+  --ROLE-units m|km|ft       override detected units (ROLE = seabed, top-basement, moho)
+  --ROLE-sign depth|elevation override the detected sign convention
+  --ROLE-nodata V            an extra no-data value
+  --ROLE-crs CRS             CRS for the file (EPSG code or proj4 string; XYZ text needs one,
+                             otherwise the analysis grid's CRS is assumed with a warning)
+  --ROLE-depth               accept a grid whose name or tags look like two-way time
+
+demo: run synth on the built-in invented demo scenario (fixtures/demo, generated if missing).
+
+Writes DIR/boundaries.geojson (inside the licence when one is given; then also
+boundaries-whole-grid.geojson), DIR/domains.geojson, DIR/grids/<name>.tif (one Float32 GeoTIFF per
+derived grid, metres unless stated; domains.tif as UInt8) and DIR/summary.json (parameters, inputs
+with sha256, detections, flagged cells, areas, lengths, warnings). Files appear only when the run
+succeeds. Exit status: 0 success; 2 bad input (message names the file and the problem); 1 otherwise.
+
+Params file keys (JSON object; every key optional):
+${paramLines}
 
 Results are interpretations of the input grids and parameters; they do not replace the judgement of
 qualified professionals, nor the local rules that govern licences, surveys and drilling.
 `;
 
-export function main(argv: string[]): number {
-  if (argv.includes('--version') || argv.includes('-V')) {
-    process.stdout.write(`${pkg.version}\n`);
-    return 0;
+class UsageError extends Error {}
+
+function parseArgs(argv: string[]): { command: string; flags: Map<string, string | true> } {
+  const [command, ...rest] = argv;
+  const flags = new Map<string, string | true>();
+  for (let k = 0; k < rest.length; k++) {
+    const a = rest[k];
+    if (!a.startsWith('--')) throw new UsageError(`unexpected argument "${a}"`);
+    const key = a.slice(2);
+    const next = rest[k + 1];
+    if (next === undefined || next.startsWith('--')) flags.set(key, true);
+    else {
+      flags.set(key, next);
+      k++;
+    }
   }
-  if (argv.length === 0 || argv.includes('--help') || argv.includes('-h')) {
-    process.stdout.write(HELP);
-    return 0;
-  }
-  process.stderr.write(`taperline: unknown command "${argv[0]}" (see taperline --help)\n`);
-  return 2;
+  return { command, flags };
 }
 
-process.exitCode = main(process.argv.slice(2));
+const GRID_ROLES = ['seabed', 'top-basement', 'moho'] as const;
+const KNOWN = new Set([
+  'top-basement', 'moho', 'seabed', 'licence', 'lines', 'picks', 'isochrons', 'crust', 'params', 'out',
+  ...GRID_ROLES.flatMap((r) => [`${r}-units`, `${r}-sign`, `${r}-nodata`, `${r}-crs`, `${r}-depth`]),
+]);
+
+function str(flags: Map<string, string | true>, key: string): string | undefined {
+  const v = flags.get(key);
+  if (v === true) throw new UsageError(`--${key} needs a value`);
+  return v;
+}
+
+function gridOptions(flags: Map<string, string | true>, role: (typeof GRID_ROLES)[number]): GridReadOptions {
+  const o: GridReadOptions = { role };
+  const units = str(flags, `${role}-units`);
+  if (units) {
+    if (!['m', 'km', 'ft'].includes(units)) throw new UsageError(`--${role}-units must be m, km or ft`);
+    o.units = units as LengthUnit;
+  }
+  const sign = str(flags, `${role}-sign`);
+  if (sign) {
+    if (!['depth', 'elevation'].includes(sign)) throw new UsageError(`--${role}-sign must be depth or elevation`);
+    o.sign = sign as Sign;
+  }
+  const nd = str(flags, `${role}-nodata`);
+  if (nd !== undefined) {
+    if (!Number.isFinite(Number(nd))) throw new UsageError(`--${role}-nodata must be a number`);
+    o.noData = Number(nd);
+  }
+  const crs = str(flags, `${role}-crs`);
+  if (crs) o.crs = crs;
+  if (flags.get(`${role}-depth`) === true) o.zDomain = 'depth';
+  return o;
+}
+
+async function synth(flags: Map<string, string | true>, out: string): Promise<void> {
+  for (const k of flags.keys()) if (!KNOWN.has(k)) throw new UsageError(`unknown option --${k}`);
+  const basementPath = str(flags, 'top-basement');
+  const mohoPath = str(flags, 'moho');
+  if (!basementPath || !mohoPath) throw new UsageError('synth needs --top-basement F and --moho F');
+  let params: Record<string, unknown> = {};
+  const paramsPath = str(flags, 'params');
+  if (paramsPath) {
+    let text: string;
+    try {
+      text = readFileSync(paramsPath, 'utf8');
+    } catch (err) {
+      throw new InputError(paramsPath, `cannot be read (${(err as NodeJS.ErrnoException).code})`);
+    }
+    try {
+      params = JSON.parse(text);
+    } catch (err) {
+      throw new InputError(paramsPath, `is not valid JSON (${(err as Error).message})`);
+    }
+    if (!params || typeof params !== 'object' || Array.isArray(params)) throw new InputError(paramsPath, 'must hold a JSON object of parameters');
+  }
+  const basement = await loadGrid(basementPath, gridOptions(flags, 'top-basement'));
+  const analysisCrs = basement.grid.geometry.crs;
+  const assume = analysisCrs.id === 'PROJ4' ? analysisCrs.proj4 : analysisCrs.id;
+  const moho = await loadGrid(mohoPath, { ...gridOptions(flags, 'moho'), assumeCrs: assume });
+  const seabedPath = str(flags, 'seabed');
+  const seabed = seabedPath ? await loadGrid(seabedPath, { ...gridOptions(flags, 'seabed'), assumeCrs: assume }) : null;
+  const vec = (key: string) => {
+    const p = str(flags, key);
+    return p ? loadVectors(p) : null;
+  };
+  const inputs: PipelineInputs = {
+    basement,
+    moho,
+    seabed,
+    licence: vec('licence'),
+    lines: vec('lines'),
+    picks: vec('picks'),
+    isochrons: vec('isochrons'),
+    crust: vec('crust'),
+  };
+  let result;
+  try {
+    result = runPipeline(inputs, { params });
+  } catch (err) {
+    if (err instanceof ParamError) throw new InputError(paramsPath ?? 'parameters', err.message);
+    throw err;
+  }
+  const files = outputFiles(result, { version: pkg.version, time: new Date().toISOString(), tool: 'cli' });
+  writeAtomically(out, files);
+  for (const w of result.warnings) process.stderr.write(`warning: ${w}\n`);
+  process.stdout.write(`wrote ${Object.keys(files).length} files to ${out}\n`);
+}
+
+/** Write every file under a temporary folder, then move them into place; nothing is left on failure. */
+function writeAtomically(out: string, files: Record<string, Uint8Array>): void {
+  mkdirSync(out, { recursive: true });
+  const tmp = join(out, `.taperline-tmp-${process.pid}`);
+  rmSync(tmp, { recursive: true, force: true });
+  try {
+    for (const [rel, bytes] of Object.entries(files)) {
+      mkdirSync(dirname(join(tmp, rel)), { recursive: true });
+      writeFileSync(join(tmp, rel), bytes);
+    }
+    for (const rel of Object.keys(files)) {
+      mkdirSync(dirname(join(out, rel)), { recursive: true });
+      renameSync(join(tmp, rel), join(out, rel));
+    }
+  } finally {
+    rmSync(tmp, { recursive: true, force: true });
+  }
+}
+
+async function demo(flags: Map<string, string | true>, out: string): Promise<void> {
+  for (const k of flags.keys()) if (k !== 'out') throw new UsageError(`unknown option --${k} for demo`);
+  const dir = resolve(here, '../../fixtures/demo');
+  if (!existsSync(join(dir, '.complete'))) {
+    const { demoFiles } = await import('../../fixtures/demo-files.js');
+    mkdirSync(dir, { recursive: true });
+    for (const [name, bytes] of Object.entries(demoFiles())) writeFileSync(join(dir, name), bytes);
+    writeFileSync(join(dir, '.complete'), 'generated by taperline demo\n');
+  }
+  const { DEMO_PARAMS } = await import('../../fixtures/demo-margin.js');
+  const paramsPath = join(dir, 'demo-params.json');
+  writeFileSync(paramsPath, JSON.stringify(DEMO_PARAMS, null, 1) + '\n');
+  const f = new Map<string, string | true>([
+    ['top-basement', join(dir, 'top-basement.tif')],
+    ['moho', join(dir, 'moho.tif')],
+    ['seabed', join(dir, 'seabed.tif')],
+    ['licence', join(dir, 'licence.geojson')],
+    ['lines', join(dir, 'seismic-lines.geojson')],
+    ['picks', join(dir, 'picks.geojson')],
+    ['isochrons', join(dir, 'isochrons.geojson')],
+    ['params', paramsPath],
+  ]);
+  process.stdout.write('Running on the invented demo scenario (Veyra margin, VM-3 Tessel licence: not real data).\n');
+  await synth(f, out);
+}
+
+export async function main(argv: string[]): Promise<number> {
+  try {
+    if (argv.includes('--version') || argv.includes('-V')) {
+      process.stdout.write(`${pkg.version}\n`);
+      return 0;
+    }
+    if (argv.length === 0 || argv.includes('--help') || argv.includes('-h')) {
+      process.stdout.write(HELP);
+      return 0;
+    }
+    const { command, flags } = parseArgs(argv);
+    const out = resolve(str(flags, 'out') ?? 'taperline-out');
+    if (command === 'synth') await synth(flags, out);
+    else if (command === 'demo') await demo(flags, out);
+    else throw new UsageError(`unknown command "${command}"`);
+    return 0;
+  } catch (err) {
+    if (err instanceof UsageError) {
+      process.stderr.write(`taperline: ${err.message} (see taperline --help)\n`);
+      return 2;
+    }
+    if (err instanceof InputError || err instanceof ParamError) {
+      process.stderr.write(`taperline: ${err.message}\n`);
+      return 2;
+    }
+    process.stderr.write(`taperline: internal error: ${(err as Error).stack ?? err}\n`);
+    return 1;
+  }
+}
+
+main(process.argv.slice(2)).then((code) => {
+  process.exitCode = code;
+});

@@ -1,0 +1,232 @@
+/**
+ * Per-cell margin domains (codes and default rules in DESIGN.md "Margin domains").
+ *
+ * Crust type is an interpretation: the thickness proxy decides sides by connectivity.
+ *  - continental side: 4-connected cells with tc ≥ taper threshold that reach the landward edge;
+ *  - oceanic side: 4-connected cells with tc ≥ the oceanic-limit threshold that reach the oceanward edge;
+ *  - landward/oceanward edges: the grid-boundary cells in the outer tenth of the range of positions
+ *    projected on the oceanward direction;
+ *  - isolated thick components touching neither: continental blocks when at least minBlockArea
+ *    (labelled), else transition;
+ *  - thin cells enclosed by one side join it (flagged); thin cells between the sides are transition;
+ *  - basement but no Moho: "Moho not imaged", transition (4), never no data;
+ *  - a component reaching both edges: thickness cannot resolve the transition there; its cells
+ *    thinner than the typical oceanic maximum become transition, flagged "unresolved".
+ * Crust-type polygons (evidence) force their cells before connectivity is computed.
+ */
+
+import { colToX, rowToY, type GridGeometry } from '../grid/geometry.js';
+import { components } from './components.js';
+import type { Oceanward } from './direction.js';
+
+export const DOMAIN_NAMES = [
+  'no data',
+  'proximal continental',
+  'necking',
+  'hyperextended continental',
+  'transition (exhumed mantle or unresolved)',
+  'oceanic',
+] as const;
+
+export type DomainCode = 0 | 1 | 2 | 3 | 4 | 5;
+
+/** Forced crust type per cell from evidence polygons. */
+export const FORCE_NONE = 0;
+export const FORCE_CONTINENTAL = 1;
+export const FORCE_TRANSITION = 2;
+export const FORCE_OCEANIC = 3;
+
+export interface ClassifyInput {
+  readonly geometry: GridGeometry;
+  /** Crustal thickness (m), NaN where the Moho is not imaged or there is no data. */
+  readonly thickness: Float32Array;
+  /** 1 where the cell has data (basement, and seabed if a seabed grid was given). */
+  readonly valid: Uint8Array;
+  /** Taper threshold per cell (calibrated to picks) or one value. */
+  readonly taperLevel: Float32Array | number;
+  /** Oceanic-limit threshold per cell or one value. */
+  readonly oceanLevel: Float32Array | number;
+  readonly oceanward: Oceanward;
+  readonly tc0: number;
+  readonly neckingFraction: number;
+  readonly couplingThickness: number;
+  readonly oceanicMin: number;
+  readonly oceanicMax: number;
+  /** km²; isolated thick components smaller than this become transition. */
+  readonly minBlockArea: number;
+  /** Area of one cell in km² (planar in the analysis CRS; block sizes only). */
+  readonly cellAreaKm2: number;
+  readonly force?: Uint8Array;
+}
+
+/** Bit flags per cell. */
+export const FLAG_MOHO_NOT_IMAGED = 1;
+export const FLAG_ATYPICAL_OCEANIC = 2;
+export const FLAG_UNRESOLVED = 4;
+export const FLAG_BLOCK = 8;
+export const FLAG_ENCLOSED_THIN = 16;
+export const FLAG_FORCED = 32;
+
+export interface Classified {
+  readonly domains: Uint8Array;
+  readonly flags: Uint8Array;
+  /** Isolated continental blocks kept (label, cells, planar km²). */
+  readonly blocks: { label: number; cells: number; areaKm2: number }[];
+  readonly counts: Record<string, number>;
+  readonly warnings: string[];
+}
+
+const level = (l: Float32Array | number, k: number) => (typeof l === 'number' ? l : l[k]);
+
+export function classify(inp: ClassifyInput): Classified {
+  const g = inp.geometry;
+  const { nx, ny } = g;
+  const n = nx * ny;
+  const tc = inp.thickness;
+  const force = inp.force;
+  const warnings: string[] = [];
+
+  // Edge seeds by position along the oceanward direction.
+  const xc = colToX(g, (nx - 1) / 2);
+  const yc = rowToY(g, (ny - 1) / 2);
+  const proj = (i: number, j: number) => (colToX(g, i) - xc) * inp.oceanward.ex + (rowToY(g, j) - yc) * inp.oceanward.ey;
+  const boundary: number[] = [];
+  for (let i = 0; i < nx; i++) boundary.push(i, (ny - 1) * nx + i);
+  for (let j = 1; j < ny - 1; j++) boundary.push(j * nx, j * nx + nx - 1);
+  let dmin = Infinity;
+  let dmax = -Infinity;
+  for (const k of boundary) {
+    const d = proj(k % nx, Math.floor(k / nx));
+    dmin = Math.min(dmin, d);
+    dmax = Math.max(dmax, d);
+  }
+  const band = 0.1 * (dmax - dmin);
+  const landSeed = new Uint8Array(n);
+  const oceanSeed = new Uint8Array(n);
+  for (const k of boundary) {
+    const d = proj(k % nx, Math.floor(k / nx));
+    if (d <= dmin + band) landSeed[k] = 1;
+    if (d >= dmax - band) oceanSeed[k] = 1;
+  }
+
+  // Thick masks, with forced cells applied.
+  const mc = new Uint8Array(n);
+  const mo = new Uint8Array(n);
+  for (let k = 0; k < n; k++) {
+    if (!inp.valid[k]) continue;
+    const f = force ? force[k] : FORCE_NONE;
+    const t = tc[k];
+    if (f === FORCE_CONTINENTAL) mc[k] = t === t ? 1 : 0;
+    else if (f === FORCE_OCEANIC) mo[k] = t === t ? 1 : 0;
+    else if (f === FORCE_NONE && t === t) {
+      if (t >= level(inp.taperLevel, k)) mc[k] = 1;
+      if (t >= level(inp.oceanLevel, k)) mo[k] = 1;
+    }
+  }
+  const cc = components(mc, nx, ny);
+  const co = components(mo, nx, ny);
+  const contComp = new Uint8Array(cc.count + 1);
+  const oceanComp = new Uint8Array(co.count + 1);
+  for (let k = 0; k < n; k++) {
+    if (landSeed[k] && cc.labels[k]) contComp[cc.labels[k]] = 1;
+    if (oceanSeed[k] && co.labels[k]) oceanComp[co.labels[k]] = 1;
+  }
+
+  const domains = new Uint8Array(n);
+  const flags = new Uint8Array(n);
+  const SIDE_C = 1;
+  const SIDE_O = 2;
+  const side = new Uint8Array(n);
+  let merged = 0;
+  const blockSizes = new Map<number, number>();
+  for (let k = 0; k < n; k++) {
+    if (!inp.valid[k]) continue;
+    const lc = cc.labels[k];
+    const lo = co.labels[k];
+    const isC = lc > 0 && contComp[lc] === 1;
+    const isO = lo > 0 && oceanComp[lo] === 1;
+    const f = force ? force[k] : FORCE_NONE;
+    if (f !== FORCE_NONE) flags[k] |= FLAG_FORCED;
+    if (f === FORCE_CONTINENTAL && mc[k]) side[k] = SIDE_C;
+    else if (f === FORCE_OCEANIC && mo[k]) side[k] = SIDE_O;
+    else if (isC && isO) {
+      merged++;
+      if (tc[k] >= inp.oceanicMax) side[k] = SIDE_C;
+      else flags[k] |= FLAG_UNRESOLVED;
+    } else if (isC) side[k] = SIDE_C;
+    else if (isO) side[k] = SIDE_O;
+    else if (lc > 0) blockSizes.set(lc, cc.sizes[lc]);
+  }
+  if (merged) {
+    warnings.push(
+      `thickness cannot resolve the transition in ${merged} cells: continental and oceanic-range crust are connected with no thinner gap; ` +
+        'cells thinner than the typical oceanic maximum there are marked unresolved. Add picks or crust-type polygons.',
+    );
+  }
+
+  // Isolated thick components: continental blocks when large enough.
+  const blocks: { label: number; cells: number; areaKm2: number }[] = [];
+  const keepBlock = new Set<number>();
+  for (const [label, cells] of blockSizes) {
+    const areaKm2 = cells * inp.cellAreaKm2;
+    if (areaKm2 >= inp.minBlockArea) {
+      keepBlock.add(label);
+      blocks.push({ label, cells, areaKm2 });
+    }
+  }
+  for (let k = 0; k < n; k++) {
+    if (!inp.valid[k] || side[k]) continue;
+    const lc = cc.labels[k];
+    if (lc > 0 && keepBlock.has(lc) && !(flags[k] & FLAG_UNRESOLVED)) {
+      side[k] = SIDE_C;
+      flags[k] |= FLAG_BLOCK;
+    }
+  }
+
+  // The rest (thin, Moho not imaged, small blocks, unresolved): enclosure decides.
+  const rest = new Uint8Array(n);
+  for (let k = 0; k < n; k++) if (inp.valid[k] && !side[k]) rest[k] = 1;
+  const cr = components(rest, nx, ny);
+  const touches = new Uint8Array(cr.count + 1); // bit 1: continental side, bit 2: oceanic side
+  for (let k = 0; k < n; k++) {
+    const l = cr.labels[k];
+    if (!l) continue;
+    const i = k % nx;
+    if (i > 0) touches[l] |= side[k - 1];
+    if (i < nx - 1) touches[l] |= side[k + 1];
+    if (k >= nx) touches[l] |= side[k - nx];
+    if (k < n - nx) touches[l] |= side[k + nx];
+  }
+
+  const neck = inp.neckingFraction * inp.tc0;
+  const counts: Record<string, number> = {};
+  for (let k = 0; k < n; k++) {
+    let d: DomainCode = 0;
+    if (inp.valid[k]) {
+      const t = tc[k];
+      const f = force ? force[k] : FORCE_NONE;
+      if (t !== t) {
+        flags[k] |= FLAG_MOHO_NOT_IMAGED;
+        d = 4;
+      } else if (side[k] === SIDE_C) d = t >= neck ? 1 : t >= inp.couplingThickness ? 2 : 3;
+      else if (side[k] === SIDE_O) d = 5;
+      else if (f === FORCE_TRANSITION || flags[k] & FLAG_UNRESOLVED) d = 4;
+      else {
+        const touch = touches[cr.labels[k]];
+        if (touch === SIDE_O) {
+          d = 5;
+          flags[k] |= FLAG_ENCLOSED_THIN;
+        } else if (touch === SIDE_C) {
+          d = 3;
+          flags[k] |= FLAG_ENCLOSED_THIN;
+        } else d = 4;
+      }
+      if (d === 5 && (t < inp.oceanicMin || t > inp.oceanicMax)) flags[k] |= FLAG_ATYPICAL_OCEANIC;
+    }
+    domains[k] = d;
+    counts[d] = (counts[d] ?? 0) + 1;
+  }
+  if (!contComp.some((v) => v === 1)) warnings.push('no continental crust reaches the landward edge: no continental side found (check the oceanward direction)');
+  if (!oceanComp.some((v) => v === 1)) warnings.push('no crust above the oceanic-limit threshold reaches the oceanward edge: no oceanic side found');
+  return { domains, flags, blocks, counts, warnings };
+}

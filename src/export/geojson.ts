@@ -1,0 +1,103 @@
+/** GeoJSON (RFC 7946) feature collections of the boundaries and the domain polygons. */
+
+import { geodesicLength, geodesicRingArea } from '../crs/geodesy.js';
+import { colToX, rowToY } from '../grid/geometry.js';
+import { DOMAIN_NAMES, FLAG_BLOCK, FLAG_MOHO_NOT_IMAGED, FLAG_UNRESOLVED } from '../domains/classify.js';
+import { polygonize } from '../domains/polygonize.js';
+import type { BoundaryPiece } from '../boundaries/extract.js';
+import type { PipelineResult } from '../pipeline.js';
+import { rfcPolygons, splitLine, toLonLat, type Pos } from './rfc7946.js';
+
+export interface Feature {
+  type: 'Feature';
+  properties: Record<string, unknown>;
+  geometry: { type: 'LineString' | 'MultiLineString' | 'Polygon' | 'MultiPolygon'; coordinates: unknown };
+}
+
+export interface FeatureCollection {
+  type: 'FeatureCollection';
+  features: Feature[];
+  [key: string]: unknown;
+}
+
+const r3 = (v: number) => Math.round(v * 1000) / 1000;
+
+function polygonArea(polys: Pos[][][]): number {
+  let a = 0;
+  for (const rings of polys) {
+    rings.forEach((ring, k) => {
+      const s = geodesicRingArea(ring.flat());
+      a += k === 0 ? s : -s;
+    });
+  }
+  return a;
+}
+
+export function pieceToFeature(piece: BoundaryPiece, r: PipelineResult): Feature {
+  const crs = r.geometry.crs;
+  const step = Math.abs(r.geometry.dx);
+  if (piece.kind === 'cot-zone') {
+    const polys = rfcPolygons(piece.coords.map((ring) => toLonLat(ring, crs, step)));
+    return {
+      type: 'Feature',
+      properties: { ...piece.properties, area_km2: r3(polygonArea(polys) / 1e6) },
+      geometry: polys.length === 1 ? { type: 'Polygon', coordinates: polys[0] } : { type: 'MultiPolygon', coordinates: polys },
+    };
+  }
+  const ll = toLonLat(piece.coords[0], crs, step);
+  const parts = splitLine(ll);
+  const length = parts.reduce((s, p) => s + geodesicLength(p.flat()), 0);
+  return {
+    type: 'Feature',
+    properties: { ...piece.properties, length_km: r3(length / 1000) },
+    geometry: parts.length === 1 ? { type: 'LineString', coordinates: parts[0] } : { type: 'MultiLineString', coordinates: parts },
+  };
+}
+
+export function boundariesGeoJson(r: PipelineResult, which: 'regional' | 'licence' = r.boundaries.inLicence ? 'licence' : 'regional'): FeatureCollection {
+  const pieces = which === 'licence' && r.boundaries.inLicence ? r.boundaries.inLicence : r.boundaries.pieces;
+  return {
+    type: 'FeatureCollection',
+    name: which === 'licence' ? `boundaries inside ${r.licenceName}` : 'boundaries (whole grid)',
+    note: 'Interpretations from depth grids and parameters; see summary.json for the rules and parameters used.',
+    features: pieces.map((p) => pieceToFeature(p, r)),
+  };
+}
+
+/** Domain polygons following cell edges (areas = cells × cell area), one feature per polygon. */
+export function domainsGeoJson(r: PipelineResult): FeatureCollection {
+  const g = r.geometry;
+  const { domains, flags } = r.classified;
+  const keys = new Uint8Array(domains.length);
+  for (let k = 0; k < keys.length; k++) {
+    const f = flags[k];
+    keys[k] = domains[k] | (f & FLAG_MOHO_NOT_IMAGED ? 8 : 0) | (f & FLAG_BLOCK ? 16 : 0) | (f & FLAG_UNRESOLVED ? 32 : 0);
+  }
+  const polys = polygonize(keys, g.nx, g.ny, (key) => (key & 7) === 0);
+  const toMap = (ring: [number, number][]): Pos[] => ring.map(([i, j]) => [colToX(g, i), rowToY(g, j)]);
+  const features: Feature[] = [];
+  for (const p of polys) {
+    const rings = [p.outer, ...p.holes].map((ring) => toLonLat(toMap(ring), g.crs, Math.abs(g.dx)));
+    const parts = rfcPolygons(rings);
+    const code = p.key & 7;
+    features.push({
+      type: 'Feature',
+      properties: {
+        code,
+        domain: DOMAIN_NAMES[code],
+        cells: p.cells,
+        area_km2: r3(polygonArea(parts) / 1e6),
+        moho_imaged: !(p.key & 8),
+        isolated_block: Boolean(p.key & 16),
+        unresolved: Boolean(p.key & 32),
+      },
+      geometry: parts.length === 1 ? { type: 'Polygon', coordinates: parts[0] } : { type: 'MultiPolygon', coordinates: parts },
+    });
+  }
+  return {
+    type: 'FeatureCollection',
+    name: 'margin domains',
+    note: 'Interpretations: thickness proxy and evidence as stated in summary.json. Polygons follow grid cells.',
+    features,
+  };
+}

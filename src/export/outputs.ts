@@ -1,0 +1,129 @@
+/**
+ * The output set of a run: boundaries.geojson, domains.geojson, grids/<name>.tif and summary.json,
+ * as bytes keyed by relative path. Shells write them (CLI) or offer them for download (app).
+ */
+
+import { DERIVED, CONTINENTAL_ONLY, OCEANIC_ONLY } from '../derive/grids.js';
+import { DOMAIN_NAMES, FLAG_ATYPICAL_OCEANIC, FLAG_BLOCK, FLAG_ENCLOSED_THIN, FLAG_FORCED, FLAG_UNRESOLVED } from '../domains/classify.js';
+import { writeGeoTiff } from '../io/geotiff-write.js';
+import { DEFAULT_PARAMS, PARAM_SPECS } from '../params.js';
+import type { PipelineResult } from '../pipeline.js';
+import { boundariesGeoJson, domainsGeoJson } from './geojson.js';
+
+export interface RunInfo {
+  readonly version: string;
+  /** ISO time of the run, from the shell (the core reads no clock). */
+  readonly time: string;
+  readonly tool: 'cli' | 'app';
+}
+
+const enc = new TextEncoder();
+const json = (v: unknown) => enc.encode(JSON.stringify(v, null, 1) + '\n');
+
+/** Derived grid values as exported: masked over the oceanic domain or outside it where they have no meaning. */
+export function exportValues(r: PipelineResult, name: string): Float32Array {
+  const v = r.derived.grids[name as keyof typeof r.derived.grids];
+  const d = r.classified.domains;
+  const continentalOnly = (CONTINENTAL_ONLY as readonly string[]).includes(name);
+  const oceanicOnly = (OCEANIC_ONLY as readonly string[]).includes(name);
+  if (!continentalOnly && !oceanicOnly) return v;
+  const out = new Float32Array(v.length);
+  for (let k = 0; k < v.length; k++) out[k] = (continentalOnly && d[k] === 5) || (oceanicOnly && d[k] !== 5) ? NaN : v[k];
+  return out;
+}
+
+export function gridFiles(r: PipelineResult): Record<string, Uint8Array> {
+  const files: Record<string, Uint8Array> = {};
+  for (const g of DERIVED) {
+    files[`grids/${g.name}.tif`] = writeGeoTiff(r.geometry, exportValues(r, g.name), { noData: 'nan', unit: g.unit || undefined, description: g.desc });
+  }
+  files['grids/domains.tif'] = writeGeoTiff(r.geometry, r.classified.domains, {
+    noData: 0,
+    description: `margin domains: ${DOMAIN_NAMES.map((n, k) => `${k} ${n}`).join('; ')}`,
+  });
+  return files;
+}
+
+export function summary(r: PipelineResult, run: RunInfo): Record<string, unknown> {
+  const inputs = Object.entries(r.inputs)
+    .filter(([, v]) => v)
+    .map(([role, v]) => {
+      const meta = v as { name: string; bytes?: number; sha256?: string; report?: unknown };
+      return { role, name: meta.name, bytes: meta.bytes ?? null, sha256: meta.sha256 ?? null, detected: meta.report ?? null };
+    });
+  const lengths: Record<string, number> = {};
+  const bfc = boundariesGeoJson(r);
+  for (const f of bfc.features) {
+    const k = String(f.properties.kind);
+    if (typeof f.properties.length_km === 'number') lengths[k] = Math.round(((lengths[k] ?? 0) + f.properties.length_km) * 1000) / 1000;
+  }
+  const cot = bfc.features.filter((f) => f.properties.kind === 'cot-zone').reduce((s, f) => s + Number(f.properties.area_km2), 0);
+  const area = (list: { code: number; cells: number; km2: number }[] | null) =>
+    list ? Object.fromEntries(list.map((a) => [DOMAIN_NAMES[a.code], { code: a.code, cells: a.cells, km2: Math.round(a.km2 * 1000) / 1000 }])) : null;
+  return {
+    tool: `taperline ${run.version} (${run.tool})`,
+    time: run.time,
+    caution:
+      'Interpretations from depth grids and the parameters below; they depend on the picks, densities and thresholds. Decisions on licences, surveys and drilling belong to qualified professionals and local rules.',
+    analysis_grid: {
+      crs: r.geometry.crs.id === 'PROJ4' ? r.geometry.crs.proj4 : r.geometry.crs.id,
+      crs_name: r.geometry.crs.name,
+      nx: r.geometry.nx,
+      ny: r.geometry.ny,
+      dx: r.geometry.dx,
+      dy: r.geometry.dy,
+      x0: r.geometry.x0,
+      y0: r.geometry.y0,
+      registration: r.geometry.registration,
+    },
+    inputs,
+    parameters: r.params,
+    parameter_defaults: DEFAULT_PARAMS,
+    parameter_units: Object.fromEntries(PARAM_SPECS.map((s) => [s.key, s.unit])),
+    oceanward: { azimuth_deg: Math.round(r.oceanward.azimuth * 10) / 10, source: r.oceanward.source },
+    evidence: {
+      picks: r.evidence.picks.length,
+      seismic_lines: r.evidence.lines.length,
+      isochrons: r.evidence.isochrons.length,
+      calibrated: {
+        'crustal-taper-limit': r.calibration.taper ? r.calibration.taper.points.length : 0,
+        'oceanic-limit': r.calibration.ocean ? r.calibration.ocean.points.length : 0,
+        'oldest-onlapped-crust': r.calibration.onlap ? r.calibration.onlap.points.length : 0,
+      },
+    },
+    flagged_cells: { ...r.derived.flags, ...classFlagCounts(r.classified.flags) },
+    domain_cells: r.classified.counts,
+    continental_blocks: r.classified.blocks,
+    areas_km2: { whole_grid: area(r.areas.total), inside_licence: area(r.areas.inLicence), licence: r.licenceName },
+    cot_zone_area_km2: Math.round(cot * 1000) / 1000,
+    boundary_lengths_km: lengths,
+    boundaries_missing: r.boundaries.missing,
+    suggested_tc0_m: Number.isFinite(r.derived.suggestedTc0) ? r.derived.suggestedTc0 : null,
+    notes: r.boundaries.notes,
+    warnings: r.warnings,
+  };
+}
+
+function classFlagCounts(flags: Uint8Array): Record<string, number> {
+  const c = { atypicalOceanic: 0, unresolvedTransition: 0, enclosedThin: 0, inContinentalBlocks: 0, forcedByEvidence: 0 };
+  for (let k = 0; k < flags.length; k++) {
+    const f = flags[k];
+    if (f & FLAG_ATYPICAL_OCEANIC) c.atypicalOceanic++;
+    if (f & FLAG_UNRESOLVED) c.unresolvedTransition++;
+    if (f & FLAG_ENCLOSED_THIN) c.enclosedThin++;
+    if (f & FLAG_BLOCK) c.inContinentalBlocks++;
+    if (f & FLAG_FORCED) c.forcedByEvidence++;
+  }
+  return c;
+}
+
+export function outputFiles(r: PipelineResult, run: RunInfo): Record<string, Uint8Array> {
+  const files: Record<string, Uint8Array> = {
+    'boundaries.geojson': json(boundariesGeoJson(r)),
+    'domains.geojson': json(domainsGeoJson(r)),
+    ...gridFiles(r),
+  };
+  if (r.boundaries.inLicence) files['boundaries-whole-grid.geojson'] = json(boundariesGeoJson(r, 'regional'));
+  files['summary.json'] = json(summary(r, run));
+  return files;
+}

@@ -1,0 +1,122 @@
+/**
+ * GeoJSON evidence and context inputs: licence polygon, existing seismic lines, interpreter picks,
+ * magnetic isochrons, crust-type polygons. RFC 7946 says WGS84 lon/lat; an old-style `crs` member
+ * naming an EPSG code is honoured (with a warning). Every problem names the file and the feature.
+ */
+
+import { resolveCrs, WGS84, type Crs } from '../crs/registry.js';
+import { InputError } from './errors.js';
+
+export type Position = [number, number];
+
+export interface VectorFeature {
+  readonly kind: 'point' | 'line' | 'polygon';
+  /** Points: one position; lines: one ring of positions; polygons: outer ring then holes. */
+  readonly parts: Position[][];
+  readonly properties: Record<string, unknown>;
+  readonly index: number;
+}
+
+export interface VectorSet {
+  readonly file: string;
+  readonly crs: Crs;
+  readonly features: VectorFeature[];
+  readonly warnings: string[];
+}
+
+export function readGeoJson(text: string, file: string): VectorSet {
+  let doc: unknown;
+  try {
+    doc = JSON.parse(text);
+  } catch (err) {
+    throw new InputError(file, `is not valid JSON (${(err as Error).message})`);
+  }
+  const warnings: string[] = [];
+  const root = doc as { type?: string; features?: unknown[]; crs?: { properties?: { name?: string } } };
+  if (!root || typeof root !== 'object' || !root.type) throw new InputError(file, 'is not GeoJSON (no "type" member)');
+  let crs: Crs = WGS84;
+  const crsName = root.crs?.properties?.name;
+  if (crsName) {
+    const m = /EPSG:{1,2}(\d+)/i.exec(crsName);
+    if (!m) throw new InputError(file, `names a CRS Taperline cannot read ("${crsName}")`);
+    try {
+      crs = resolveCrs(m[1]);
+    } catch (err) {
+      throw new InputError(file, (err as Error).message);
+    }
+    if (crs !== WGS84) warnings.push(`uses a "crs" member (${crsName}); RFC 7946 GeoJSON is WGS84 longitude/latitude`);
+  }
+  const raw: { geometry?: { type?: string; coordinates?: unknown }; properties?: Record<string, unknown> | null }[] =
+    root.type === 'FeatureCollection' ? ((root.features ?? []) as never[]) : root.type === 'Feature' ? [root as never] : [{ geometry: root as never, properties: {} }];
+  const features: VectorFeature[] = [];
+  raw.forEach((f, index) => {
+    const g = f.geometry;
+    if (!g || !g.type) throw new InputError(file, `feature ${index} has no geometry`);
+    const props = f.properties ?? {};
+    const c = g.coordinates as unknown;
+    const pos = (p: unknown, where: string): Position => {
+      if (!Array.isArray(p) || p.length < 2 || !Number.isFinite(p[0]) || !Number.isFinite(p[1])) {
+        throw new InputError(file, `feature ${index}: ${where} is not a coordinate pair`);
+      }
+      if (crs === WGS84 && (Math.abs(p[0]) > 360 || Math.abs(p[1]) > 90)) {
+        throw new InputError(file, `feature ${index}: (${p[0]}, ${p[1]}) is not longitude/latitude; RFC 7946 GeoJSON is WGS84`);
+      }
+      return [p[0], p[1]];
+    };
+    const ring = (r: unknown, where: string) => {
+      if (!Array.isArray(r)) throw new InputError(file, `feature ${index}: ${where} is not a list of positions`);
+      return r.map((p, k) => pos(p, `${where} position ${k}`));
+    };
+    switch (g.type) {
+      case 'Point':
+        features.push({ kind: 'point', parts: [[pos(c, 'point')]], properties: props, index });
+        break;
+      case 'MultiPoint':
+        for (const p of c as unknown[]) features.push({ kind: 'point', parts: [[pos(p, 'point')]], properties: props, index });
+        break;
+      case 'LineString':
+        features.push({ kind: 'line', parts: [ring(c, 'line')], properties: props, index });
+        break;
+      case 'MultiLineString':
+        for (const l of c as unknown[]) features.push({ kind: 'line', parts: [ring(l, 'line')], properties: props, index });
+        break;
+      case 'Polygon':
+        features.push({ kind: 'polygon', parts: (c as unknown[]).map((r, k) => ring(r, `ring ${k}`)), properties: props, index });
+        break;
+      case 'MultiPolygon':
+        for (const poly of c as unknown[]) features.push({ kind: 'polygon', parts: (poly as unknown[]).map((r, k) => ring(r, `ring ${k}`)), properties: props, index });
+        break;
+      default:
+        throw new InputError(file, `feature ${index} has geometry type ${g.type}, which Taperline does not read`);
+    }
+  });
+  return { file, crs, features, warnings };
+}
+
+export type PickKind = 'continental-limit' | 'oceanic-limit' | 'onlap';
+export const PICK_KINDS: readonly PickKind[] = ['continental-limit', 'oceanic-limit', 'onlap'];
+
+/** Check the shape each evidence role needs, with messages naming the file and feature. */
+export function expectKinds(set: VectorSet, role: 'licence' | 'lines' | 'picks' | 'isochrons' | 'crust'): void {
+  const want = role === 'licence' || role === 'crust' ? 'polygon' : role === 'picks' ? 'point' : 'line';
+  if (set.features.length === 0) throw new InputError(set.file, `holds no features (expected ${want}s for the ${role})`);
+  for (const f of set.features) {
+    if (f.kind !== want) throw new InputError(set.file, `feature ${f.index} is a ${f.kind}; the ${role} file needs ${want}s`);
+    if (role === 'picks') {
+      const k = f.properties.kind;
+      if (typeof k !== 'string' || !PICK_KINDS.includes(k as PickKind)) {
+        throw new InputError(set.file, `pick ${f.index} has kind ${JSON.stringify(k)}; expected one of ${PICK_KINDS.join(', ')}`);
+      }
+    }
+    if (role === 'isochrons') {
+      const a = Number(f.properties.age_ma);
+      if (!Number.isFinite(a) || a < 0) throw new InputError(set.file, `isochron ${f.index} needs a numeric "age_ma" property`);
+    }
+    if (role === 'crust') {
+      const t = f.properties.crust;
+      if (t !== 'continental' && t !== 'oceanic' && t !== 'transition') {
+        throw new InputError(set.file, `crust-type polygon ${f.index} needs "crust": "continental", "oceanic" or "transition"`);
+      }
+    }
+  }
+}

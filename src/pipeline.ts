@@ -1,0 +1,254 @@
+/**
+ * The one pure function both shells call: grids, evidence and parameters in; derived grids, domains,
+ * boundaries, areas and a summary out. No files, no DOM, no clock (the caller passes `now`).
+ */
+
+import { WGS84 } from './crs/registry.js';
+import { transformer } from './crs/transform.js';
+import { densify } from './crs/densify.js';
+import { cellAreas, rasterizeRings } from './grid/cell-area.js';
+import { sameGeometry, type GridGeometry } from './grid/geometry.js';
+import type { Grid } from './grid/grid.js';
+import { resample } from './grid/resample.js';
+import { derive, type Derived } from './derive/derive.js';
+import { classify, FORCE_CONTINENTAL, FORCE_OCEANIC, FORCE_TRANSITION, type Classified } from './domains/classify.js';
+import { oceanwardFromAzimuth, oceanwardFromDepth, type Oceanward } from './domains/direction.js';
+import { calibrateThreshold, type Calibration } from './boundaries/calibrate.js';
+import { extractBoundaries, type BoundaryResult, type Isochron, type Pick } from './boundaries/extract.js';
+import type { Ring } from './boundaries/planar.js';
+import { smoothGrid } from './boundaries/smooth.js';
+import { InputError } from './io/errors.js';
+import type { GridReadReport } from './io/report.js';
+import { expectKinds, type VectorSet } from './io/geojson-read.js';
+import { resolveParams, type Params } from './params.js';
+
+export interface InputMeta {
+  readonly name: string;
+  readonly bytes?: number;
+  readonly sha256?: string;
+}
+
+export interface GridInput extends InputMeta {
+  readonly grid: Grid;
+  readonly report?: GridReadReport;
+}
+
+export interface VectorInput extends InputMeta {
+  readonly set: VectorSet;
+}
+
+export interface PipelineInputs {
+  readonly basement: GridInput;
+  readonly moho: GridInput;
+  readonly seabed?: GridInput | null;
+  readonly licence?: VectorInput | null;
+  readonly lines?: VectorInput | null;
+  readonly picks?: VectorInput | null;
+  readonly isochrons?: VectorInput | null;
+  readonly crust?: VectorInput | null;
+}
+
+export interface PipelineOptions {
+  readonly params?: Partial<Record<string, unknown>>;
+  readonly onProgress?: (stage: string, fraction: number) => void;
+}
+
+export interface DomainArea {
+  readonly code: number;
+  readonly cells: number;
+  readonly km2: number;
+}
+
+export interface PipelineResult {
+  readonly params: Params;
+  readonly geometry: GridGeometry;
+  readonly derived: Derived;
+  readonly classified: Classified;
+  readonly oceanward: Oceanward;
+  readonly calibration: { taper: Calibration | null; ocean: Calibration | null; onlap: Calibration | null };
+  readonly boundaries: BoundaryResult;
+  readonly areas: { readonly total: DomainArea[]; readonly inLicence: DomainArea[] | null };
+  readonly licenceName: string | null;
+  /** Vector evidence in the analysis CRS, for display and sections. */
+  readonly evidence: { picks: Pick[]; lines: { name: string; coords: Ring[] }[]; isochrons: Isochron[]; licence: Ring[] | null };
+  readonly inputs: PipelineInputs;
+  readonly warnings: string[];
+}
+
+export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {}): PipelineResult {
+  const progress = options.onProgress ?? (() => {});
+  const params = resolveParams(options.params ?? {});
+  const warnings: string[] = [];
+  const geometry = inputs.basement.grid.geometry;
+  const n = geometry.nx * geometry.ny;
+
+  progress('resampling', 0.05);
+  const onAnalysis = (inp: GridInput | null | undefined): Float32Array | null => {
+    if (!inp) return null;
+    if (sameGeometry(inp.grid.geometry, geometry)) return inp.grid.values;
+    const r = resample(inp.grid, geometry).values;
+    let valid = 0;
+    for (let k = 0; k < n; k++) if (r[k] === r[k]) valid++;
+    if (valid === 0) throw new InputError(inp.name, `does not overlap the top-basement grid (${inputs.basement.name})`);
+    warnings.push(`${inp.name} resampled onto the analysis grid (${inputs.basement.name}); ${((100 * valid) / n).toFixed(1)}% of cells covered`);
+    return r;
+  };
+  const moho = onAnalysis(inputs.moho)!;
+  const seabed = onAnalysis(inputs.seabed);
+
+  progress('derived grids', 0.15);
+  const derived = derive({ seabed, basement: inputs.basement.grid.values, moho }, params);
+  let validMoho = 0;
+  for (let k = 0; k < n; k++) if (moho[k] === moho[k] && inputs.basement.grid.values[k] === inputs.basement.grid.values[k]) validMoho++;
+  if (validMoho > 0 && derived.flags.mohoAboveBasement > 0.5 * validMoho) {
+    throw new InputError(
+      inputs.moho.name,
+      `lies above the top basement (${inputs.basement.name}) in ${((100 * derived.flags.mohoAboveBasement) / validMoho).toFixed(0)}% of cells: are the Moho and top-basement files swapped?`,
+    );
+  }
+  warnings.push(...derived.warnings);
+  if (Number.isFinite(derived.suggestedTc0) && Math.abs(derived.suggestedTc0 - params.tc0) > 3000) {
+    warnings.push(`the data suggest a reference thickness near ${(derived.suggestedTc0 / 1000).toFixed(1)} km (95th percentile of crustal thickness); tc0 = ${params.tc0 / 1000} km is in use (not changed)`);
+  }
+
+  progress('oceanward direction', 0.45);
+  let oceanward: Oceanward;
+  if (params.oceanwardAzimuth !== null) oceanward = oceanwardFromAzimuth(params.oceanwardAzimuth);
+  else {
+    const fit = oceanwardFromDepth(geometry, seabed ? derived.grids['water-loaded-basement'] : inputs.basement.grid.values);
+    if (fit) oceanward = fit;
+    else {
+      oceanward = oceanwardFromAzimuth(90);
+      warnings.push('oceanward direction could not be fitted (too few cells): east (90°) assumed; set it explicitly');
+    }
+  }
+
+  // Vector evidence into the analysis CRS.
+  const toMap = (v: VectorInput, ring: [number, number][]): Ring => {
+    const t = transformer(v.set.crs, geometry.crs);
+    const dense = v.set.crs === WGS84 ? densify(ring, 0.01) : ring;
+    return dense.map((p) => t.forward(p) as [number, number]);
+  };
+  const check = (v: VectorInput | null | undefined, role: Parameters<typeof expectKinds>[1]) => {
+    if (!v) return null;
+    expectKinds(v.set, role);
+    warnings.push(...v.set.warnings.map((w) => `${v.name}: ${w}`));
+    return v;
+  };
+  const licenceIn = check(inputs.licence, 'licence');
+  const linesIn = check(inputs.lines, 'lines');
+  const picksIn = check(inputs.picks, 'picks');
+  const isoIn = check(inputs.isochrons, 'isochrons');
+  const crustIn = check(inputs.crust, 'crust');
+  const licence = licenceIn ? licenceIn.set.features.flatMap((f) => f.parts.map((r) => toMap(licenceIn, r))) : null;
+  const picks: Pick[] = picksIn
+    ? picksIn.set.features.map((f) => {
+        const [x, y] = toMap(picksIn, f.parts[0])[0];
+        return { x, y, kind: f.properties.kind as Pick['kind'], line: f.properties.line !== undefined ? String(f.properties.line) : undefined };
+      })
+    : [];
+  const lines = linesIn ? linesIn.set.features.map((f, k) => ({ name: String(f.properties.name ?? `line ${k + 1}`), coords: f.parts.map((r) => toMap(linesIn, r)) })) : [];
+  const isochrons: Isochron[] = isoIn
+    ? isoIn.set.features.map((f) => ({ coords: toMap(isoIn, f.parts[0]), age: Number(f.properties.age_ma), label: f.properties.label as string | undefined }))
+    : [];
+
+  progress('domains', 0.55);
+  const tcRaw = derived.grids['crustal-thickness'];
+  const tc = params.smoothCells > 0 ? smoothGrid(tcRaw, geometry.nx, geometry.ny, params.smoothCells) : tcRaw;
+  const calibrate = (kind: Pick['kind'], fallback: number) => {
+    const sel = picks.filter((q) => q.kind === kind);
+    if (!sel.length) return null;
+    const c = calibrateThreshold(geometry, tc, sel, oceanward, fallback);
+    for (const s of c.skipped) warnings.push(`${kind} pick${s.line ? ` on ${s.line}` : ''} at (${s.x.toFixed(0)}, ${s.y.toFixed(0)}) not used: ${s.reason}`);
+    return c;
+  };
+  const calTaper = calibrate('continental-limit', params.taperThreshold);
+  const calOcean = calibrate('oceanic-limit', params.taperThreshold);
+  const calOnlap = calibrate('onlap', params.taperThreshold);
+
+  let force: Uint8Array | undefined;
+  if (crustIn) {
+    force = new Uint8Array(n);
+    for (const f of crustIn.set.features) {
+      const mask = rasterizeRings(geometry, f.parts.map((r) => toMap(crustIn, r)));
+      const code = f.properties.crust === 'continental' ? FORCE_CONTINENTAL : f.properties.crust === 'oceanic' ? FORCE_OCEANIC : FORCE_TRANSITION;
+      for (let k = 0; k < n; k++) if (mask[k]) force[k] = code;
+    }
+  }
+  const valid = new Uint8Array(n);
+  const b = inputs.basement.grid.values;
+  const sed = derived.grids['sediment-thickness'];
+  // a cell has data when its basement does and, with a seabed grid, its seabed and sediment do (no pick error)
+  for (let k = 0; k < n; k++) valid[k] = b[k] === b[k] && (!seabed || sed[k] === sed[k]) ? 1 : 0;
+  const areasPerCell = cellAreas(geometry);
+  let meanCell = 0;
+  for (let k = 0; k < n; k++) meanCell += areasPerCell[k];
+  meanCell /= n;
+  const classified = classify({
+    geometry,
+    thickness: tc,
+    valid,
+    taperLevel: calTaper?.field ?? params.taperThreshold,
+    oceanLevel: calOcean?.field ?? params.taperThreshold,
+    oceanward,
+    tc0: params.tc0,
+    neckingFraction: params.neckingFraction,
+    couplingThickness: params.couplingThickness,
+    oceanicMin: params.oceanicMin,
+    oceanicMax: params.oceanicMax,
+    minBlockArea: params.minBlockArea,
+    cellAreaKm2: meanCell / 1e6,
+    force,
+  });
+  warnings.push(...classified.warnings);
+
+  progress('areas', 0.7);
+  const licenceMask = licence ? rasterizeRings(geometry, licence) : null;
+  const tally = (mask: Uint8Array | null): DomainArea[] => {
+    const cells = new Float64Array(6);
+    const m2 = new Float64Array(6);
+    for (let k = 0; k < n; k++) {
+      if (mask && !mask[k]) continue;
+      const d = classified.domains[k];
+      cells[d]++;
+      m2[d] += areasPerCell[k];
+    }
+    return [0, 1, 2, 3, 4, 5].map((code) => ({ code, cells: cells[code], km2: m2[code] / 1e6 }));
+  };
+  const areas = { total: tally(null), inLicence: licenceMask ? tally(licenceMask) : null };
+  if (licence && licenceMask && !licenceMask.some((v) => v)) warnings.push(`${inputs.licence!.name}: the licence polygon does not overlap the analysis grid`);
+
+  progress('boundaries', 0.8);
+  const boundaries = extractBoundaries({
+    geometry,
+    thickness: tc,
+    domains: classified.domains,
+    taperLevel: calTaper?.field ?? params.taperThreshold,
+    oceanLevel: calOcean?.field ?? params.taperThreshold,
+    onlapLevel: calOnlap?.field ?? null,
+    params,
+    picks,
+    seismicLines: lines.flatMap((l) => l.coords),
+    isochrons,
+    licence,
+    licenceMask,
+    oceanicAgeMin: seabed ? derived.grids['oceanic-age-min'] : null,
+    oceanicAgeMax: seabed ? derived.grids['oceanic-age-max'] : null,
+  });
+  for (const m of boundaries.missing) warnings.push(m.reason);
+  progress('done', 1);
+  return {
+    params,
+    geometry,
+    derived,
+    classified,
+    oceanward,
+    calibration: { taper: calTaper, ocean: calOcean, onlap: calOnlap },
+    boundaries,
+    areas,
+    licenceName: licenceIn ? String(licenceIn.set.features[0]?.properties.name ?? licenceIn.name) : null,
+    evidence: { picks, lines, isochrons, licence },
+    inputs,
+    warnings,
+  };
+}
