@@ -1,0 +1,87 @@
+// The taperline command where users meet it: help, exit codes, one-line messages, no half-written output.
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { demoFiles } from '../../fixtures/demo-files.js';
+import { PARAM_SPECS } from '../../src/params.js';
+import { taperline } from '../helpers/cli.js';
+
+const dir = mkdtempSync(join(tmpdir(), 'taperline-cli-'));
+const f = (name: string) => join(dir, name);
+beforeAll(() => {
+  const files = demoFiles();
+  for (const name of ['top-basement.tif', 'moho.tif', 'seabed.tif', 'licence.geojson']) writeFileSync(f(name), files[name]);
+  writeFileSync(f('cut.tif'), files['moho.tif'].subarray(0, 5000));
+  writeFileSync(f('notes.tif'), 'these are my notes, not a grid\n');
+  // a TIFF that declares 100000 × 100000 cells: patch ImageWidth/ImageLength of a small valid file
+  const big = Buffer.from(files['moho.tif']);
+  const entries = big.readUInt16LE(8);
+  for (let e = 0; e < entries; e++) {
+    const p = 10 + 12 * e;
+    const tag = big.readUInt16LE(p);
+    if (tag === 256 || tag === 257) big.writeUInt32LE(100_000, p + 8);
+  }
+  writeFileSync(f('huge.tif'), big);
+  writeFileSync(f('bad-params.json'), JSON.stringify({ rhoMantle: 2500 }));
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+const synth = (extra: string[], out = f('out')) => taperline(['synth', '--top-basement', f('top-basement.tif'), '--moho', f('moho.tif'), '--out', out, ...extra]);
+
+describe('taperline CLI', () => {
+  it('--help documents every flag and every params-file key; --version prints the version', () => {
+    const h = taperline(['--help']);
+    expect(h.status).toBe(0);
+    for (const flag of ['--top-basement', '--moho', '--seabed', '--licence', '--picks', '--isochrons', '--params', '--out', 'demo']) expect(h.stdout).toContain(flag);
+    for (const s of PARAM_SPECS) expect(h.stdout).toContain(s.key);
+    expect(h.stdout).toMatch(/qualified professionals/);
+    const v = taperline(['--version']);
+    expect(v.stdout.trim()).toBe(JSON.parse(readFileSync('package.json', 'utf8')).version);
+  });
+
+  const bad: [string, string[], RegExp][] = [
+    ['a missing file', ['--seabed', f('nope.tif')], /nope\.tif: cannot be read \(ENOENT\)/],
+    ['a truncated file', ['--seabed', f('cut.tif')], /cut\.tif: .*(truncated|damaged|cannot be read)/],
+    ['a file that is not a grid', ['--seabed', f('notes.tif')], /notes\.tif: is not a TIFF file/],
+    ['a declared size beyond memory', ['--seabed', f('huge.tif')], /huge\.tif: declares 100000 × 100000 cells/],
+    ['impossible parameters', ['--params', f('bad-params.json')], /bad-params\.json: mantle density \(2500\) must exceed crust density/],
+    ['a licence that is not a polygon file', ['--licence', f('moho.tif')], /moho\.tif: is not valid JSON/],
+  ];
+  for (const [what, args, message] of bad) {
+    it(`exits 2 on ${what}, with one line naming the file, and leaves no output behind`, () => {
+      const out = f(`out-${what.replace(/\W+/g, '-')}`);
+      const r = synth(args, out);
+      expect(r.status).toBe(2);
+      expect(r.stderr.trim().split('\n')).toHaveLength(1);
+      expect(r.stderr).toMatch(message);
+      expect(existsSync(out) ? readdirSync(out) : []).toEqual([]);
+    });
+  }
+
+  it('exits 2 when the Moho and basement are swapped', () => {
+    const r = taperline(['synth', '--top-basement', f('moho.tif'), '--moho', f('top-basement.tif'), '--out', f('swapped')]);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/top-basement\.tif: lies above the top basement \(moho\.tif\) in \d+% of cells: are the Moho and top-basement files swapped\?/);
+  });
+
+  it('exits 2 when the grids do not overlap', () => {
+    const r = synth(['--seabed', f('top-basement.tif'), '--seabed-crs', 'EPSG:32601'], f('disjoint'));
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/top-basement\.tif: does not overlap the top-basement grid/);
+  });
+
+  it('exits 2 on an unknown option', () => {
+    const r = synth(['--colour', 'red']);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/unknown option --colour/);
+  });
+
+  it('a minimal synth (basement + Moho only) succeeds and says what it could not compute', () => {
+    const r = synth([], f('minimal'));
+    expect(r.status).toBe(0);
+    const s = JSON.parse(readFileSync(join(f('minimal'), 'summary.json'), 'utf8'));
+    expect(s.warnings.join()).toMatch(/no seabed grid/);
+    expect(readdirSync(f('minimal')).filter((n) => n.startsWith('.'))).toEqual([]);
+  });
+});

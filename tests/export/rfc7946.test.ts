@@ -1,0 +1,151 @@
+// GeoJSON output against RFC 7946 rules, and the outputs opened by GDAL (an independent reader).
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { geodesicLength, geodesicRingArea } from '../../src/crs/geodesy.js';
+import { lonLatSignedArea, rfcPolygons, splitLine } from '../../src/export/rfc7946.js';
+import { taperline } from '../helpers/cli.js';
+import { toolOrSkip } from '../helpers/tools.js';
+
+type Geo = { type: string; coordinates: unknown };
+
+/** RFC 7946 rules: §3.1.1 positions of two numbers (no depth), lon/lat ranges; §3.1.4 LineStrings of
+ * two or more positions; §3.1.6 linear rings closed with four or more positions, exterior rings
+ * counter-clockwise and holes clockwise; §4 no "crs" member. Returns the violations found. */
+export function rfc7946Violations(fc: { type: string; crs?: unknown; features: { geometry: Geo }[] }): string[] {
+  const bad: string[] = [];
+  if ('crs' in fc) bad.push('has a crs member');
+  const pos = (p: unknown, where: string) => {
+    if (!Array.isArray(p) || p.length !== 2 || !p.every(Number.isFinite)) bad.push(`${where}: position ${JSON.stringify(p)} is not two numbers`);
+    else if (Math.abs(p[0]) > 180 || Math.abs(p[1]) > 90) bad.push(`${where}: ${p} out of range`);
+  };
+  const ring = (r: [number, number][], where: string, exterior: boolean) => {
+    r.forEach((p, k) => pos(p, `${where}[${k}]`));
+    if (r.length < 4) bad.push(`${where}: ring of ${r.length} positions`);
+    const a = r[0];
+    const b = r[r.length - 1];
+    if (a[0] !== b[0] || a[1] !== b[1]) bad.push(`${where}: ring not closed`);
+    const area = lonLatSignedArea(r);
+    if (exterior && !(area > 0)) bad.push(`${where}: exterior ring not counter-clockwise`);
+    if (!exterior && !(area < 0)) bad.push(`${where}: hole not clockwise`);
+  };
+  fc.features.forEach((f, k) => {
+    const g = f.geometry;
+    const w = `feature ${k}`;
+    if (g.type === 'LineString') {
+      const c = g.coordinates as [number, number][];
+      if (c.length < 2) bad.push(`${w}: LineString of ${c.length} positions`);
+      c.forEach((p, q) => pos(p, `${w}[${q}]`));
+    } else if (g.type === 'MultiLineString') (g.coordinates as [number, number][][]).forEach((c, q) => c.forEach((p, s) => pos(p, `${w}[${q}][${s}]`)));
+    else if (g.type === 'Polygon') (g.coordinates as [number, number][][]).forEach((r, q) => ring(r, `${w} ring ${q}`, q === 0));
+    else if (g.type === 'MultiPolygon') (g.coordinates as [number, number][][][]).forEach((poly, s) => poly.forEach((r, q) => ring(r, `${w} part ${s} ring ${q}`, q === 0)));
+    else bad.push(`${w}: unexpected geometry ${g.type}`);
+  });
+  return bad;
+}
+
+describe('RFC 7946 helpers', () => {
+  it('split a line at the antimeridian, keeping both parts on their own side', () => {
+    const parts = splitLine([[179, 10], [-179, 12]]);
+    expect(parts).toEqual([[[179, 10], [180, 11]], [[-180, 11], [-179, 12]]]);
+  });
+  it('split a polygon spanning the antimeridian into two right-hand-wound parts', () => {
+    const polys = rfcPolygons([[[178, -10], [-178, -10], [-178, -8], [178, -8], [178, -10]]]);
+    expect(polys.length).toBe(2);
+    for (const p of polys) expect(lonLatSignedArea(p[0])).toBeGreaterThan(0);
+    const lons = polys.map((p) => p[0].map((q) => q[0]));
+    expect(lons.some((l) => l.every((x) => x >= 178))).toBe(true);
+    expect(lons.some((l) => l.every((x) => x <= -178))).toBe(true);
+  });
+  it('winds a clockwise exterior counter-clockwise', () => {
+    const [poly] = rfcPolygons([[[0, 0], [0, 1], [1, 1], [1, 0], [0, 0]]]);
+    expect(lonLatSignedArea(poly[0])).toBeGreaterThan(0);
+  });
+});
+
+describe('taperline demo outputs', () => {
+  const out = mkdtempSync(join(tmpdir(), 'taperline-demo-'));
+  afterAll(() => rmSync(out, { recursive: true, force: true }));
+  const run = taperline(['demo', '--out', out]);
+
+  it('the demo command succeeds on a fresh checkout and writes the documented files', () => {
+    expect(run.stderr).not.toMatch(/internal error/);
+    expect(run.status).toBe(0);
+    const names = readdirSync(out).sort();
+    expect(names).toEqual(['boundaries-whole-grid.geojson', 'boundaries.geojson', 'domains.geojson', 'grids', 'summary.json']);
+    expect(readdirSync(join(out, 'grids'))).toContain('crustal-thickness.tif');
+    expect(readdirSync(join(out, 'grids'))).toHaveLength(15);
+  });
+
+  it('boundaries and domains follow RFC 7946', () => {
+    for (const f of ['boundaries.geojson', 'boundaries-whole-grid.geojson', 'domains.geojson']) {
+      const fc = JSON.parse(readFileSync(join(out, f), 'utf8'));
+      expect(fc.features.length).toBeGreaterThan(0);
+      expect(rfc7946Violations(fc), f).toEqual([]);
+    }
+  });
+
+  it('every boundary piece says what placed it, how far control is, and its geodesic length or area', () => {
+    const fc = JSON.parse(readFileSync(join(out, 'boundaries-whole-grid.geojson'), 'utf8'));
+    const kinds = new Set(fc.features.map((f: { properties: { kind: string } }) => f.properties.kind));
+    expect([...kinds].sort()).toEqual(['cot-zone', 'coupling-line', 'crustal-taper-limit', 'necking-line', 'oldest-onlapped-crust']);
+    for (const f of fc.features) {
+      expect(['picks', 'proxy']).toContain(f.properties.evidence);
+      if (f.geometry.type === 'LineString') {
+        expect(f.properties.length_km).toBeCloseTo(geodesicLength(f.geometry.coordinates.flat()) / 1000, 2);
+        expect(typeof f.properties.control_distance_km).toBe('number');
+      } else {
+        expect(f.properties.area_km2).toBeCloseTo(geodesicRingArea(f.geometry.coordinates[0].flat()) / 1e6 - f.geometry.coordinates.slice(1).reduce((s: number, r: number[][]) => s + geodesicRingArea(r.flat()) / 1e6, 0), 1);
+      }
+    }
+    const onlap = fc.features.find((f: { properties: { kind: string } }) => f.properties.kind === 'oldest-onlapped-crust');
+    expect(onlap.properties.age_min_ma).toBe(108);
+    expect(onlap.properties.depth_age_note).toMatch(/indicative/);
+  });
+
+  it('the summary records parameters with defaults, inputs with sha256 and detections, areas and warnings', () => {
+    const s = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
+    expect(s.parameters.riftAge).toBe(110);
+    expect(s.parameter_defaults.tc0).toBe(35000);
+    const basement = s.inputs.find((i: { role: string }) => i.role === 'basement');
+    expect(basement.sha256).toMatch(/^[0-9a-f]{64}$/);
+    expect(basement.detected.units.value).toBe('m');
+    expect(s.areas_km2.inside_licence).not.toBeNull();
+    expect(s.time).toMatch(/^\d{4}-\d\d-\d\dT/);
+    expect(s.caution).toMatch(/interpretations/i);
+    // domain areas in the licence add up to the licence area covered by the grid (± one cell row)
+    const total = Object.values(s.areas_km2.whole_grid as Record<string, { km2: number }>).reduce((a, b) => a + b.km2, 0);
+    expect(total).toBeGreaterThan(59_000);
+    expect(total).toBeLessThan(61_000); // 300 × 200 km at UTM scale
+  });
+
+  const gdal = toolOrSkip('gdal');
+  it.skipIf(!gdal)('GDAL opens every output: grids with CRS, extent and NoData; vectors valid', () => {
+    for (const f of readdirSync(join(out, 'grids'))) {
+      const info = JSON.parse(execFileSync('gdalinfo', ['-json', join(out, 'grids', f)], { encoding: 'utf8' }));
+      expect(info.geoTransform).toEqual([350_000, 500, 0, 6_225_000, 0, -500]);
+      expect(info.coordinateSystem.wkt).toMatch(/ID\["EPSG",32709\]\]$/);
+      expect(info.size).toEqual([600, 400]);
+      if (f === 'domains.tif') {
+        expect(info.bands[0].type).toBe('Byte');
+        expect(info.bands[0].noDataValue).toBe(0);
+      } else {
+        expect(info.bands[0].type).toBe('Float32');
+        expect(String(info.bands[0].noDataValue)).toBe('NaN');
+      }
+    }
+    for (const f of ['boundaries.geojson', 'domains.geojson']) {
+      const layer = JSON.parse(readFileSync(join(out, f), 'utf8')).name;
+      const text = execFileSync('ogrinfo', ['-q', '-dialect', 'SQLite', '-sql', `SELECT SUM(ST_IsValid(geometry)) AS valid, COUNT(*) AS n FROM "${layer}"`, join(out, f)], { encoding: 'utf8' });
+      const valid = Number(/valid \(Integer\) = (\d+)/.exec(text)?.[1]);
+      const n = Number(/n \(Integer\) = (\d+)/.exec(text)?.[1]);
+      expect(n).toBeGreaterThan(0);
+      expect(valid).toBe(n);
+      const so = execFileSync('ogrinfo', ['-so', '-al', join(out, f)], { encoding: 'utf8' });
+      expect(so).toMatch(/WGS 84/);
+      expect(so).toMatch(/Extent: \(-1[23]\d\.\d+, -3\d\.\d+\) - \(-12\d\.\d+, -3\d\.\d+\)/);
+    }
+  });
+});
