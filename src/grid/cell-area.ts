@@ -23,7 +23,7 @@ export function cellGeodesicArea(g: GridGeometry, fi: number, fj: number): numbe
 }
 
 /** Geodesic area of each cell (m²), Float64Array, row-major. */
-export function cellAreas(g: GridGeometry, step = 32): Float64Array {
+export function cellAreas(g: GridGeometry, step = 16): Float64Array {
   const { nx, ny } = g;
   const li = Math.ceil((nx - 1) / step) + 1;
   const lj = Math.ceil((ny - 1) / step) + 1;
