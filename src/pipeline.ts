@@ -15,7 +15,7 @@ import { classify, FORCE_CONTINENTAL, FORCE_OCEANIC, FORCE_TRANSITION, type Clas
 import { oceanwardFromAzimuth, oceanwardFromDepth, type Oceanward } from './domains/direction.js';
 import { calibrateThreshold, type Calibration } from './boundaries/calibrate.js';
 import { extractBoundaries, type BoundaryResult, type Isochron, type Pick } from './boundaries/extract.js';
-import type { Ring } from './boundaries/planar.js';
+import { simplifyPath, type Ring } from './boundaries/planar.js';
 import { smoothGrid } from './boundaries/smooth.js';
 import { InputError } from './io/errors.js';
 import type { GridReadReport } from './io/report.js';
@@ -228,9 +228,10 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     onlapLevel: calOnlap?.field ?? null,
     params,
     picks,
-    seismicLines: lines.flatMap((l) => l.coords),
+    // control lines and the licence are only measured against: 1 m simplification keeps them exact enough and fast
+    seismicLines: lines.flatMap((l) => l.coords).map((c) => simplifyPath(c, 1)),
     isochrons,
-    licence,
+    licence: licence ? licence.map((r) => simplifyPath(r, 1)) : null,
     licenceMask,
     oceanicAgeMin: seabed ? derived.grids['oceanic-age-min'] : null,
     oceanicAgeMax: seabed ? derived.grids['oceanic-age-max'] : null,

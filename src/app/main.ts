@@ -1,10 +1,823 @@
-// Browser shell. Placeholder until the app issue lands: shows what Taperline is and the cautions.
-const root = document.getElementById('app')!;
-root.innerHTML = `<main style="max-width:44rem;margin:3rem auto;line-height:1.5">
-<h1>Taperline</h1>
-<p>Map-view synthesis of rifted-margin depth grids. The map application is being built; the core
-(readers, grid model, demo scenario) and the command-line tool run today.</p>
-<p><strong>Caution:</strong> results are interpretations of the input grids and parameters. Decisions on
-licences, surveys and drilling belong to qualified professionals and the local rules that govern them.</p>
-</main>`;
-(window as unknown as { __taperlineReady: boolean }).__taperlineReady = true;
+/**
+ * Browser shell: map, panels, worker, persistence. It computes nothing of the science itself; the
+ * pipeline runs in the worker (src/app/worker.ts) and this file shows what comes back.
+ */
+
+import 'maplibre-gl/dist/maplibre-gl.css';
+import maplibregl, { type GeoJSONSource, type MapMouseEvent } from 'maplibre-gl';
+import { MapboxOverlay } from '@deck.gl/mapbox';
+import { BitmapLayer } from '@deck.gl/layers';
+import { WGS84 } from '../crs/registry.js';
+import { transformer } from '../crs/transform.js';
+import { DERIVED } from '../derive/grids.js';
+import { guessRole } from '../io/detect.js';
+import { parseProject, toBase64, fromBase64, PROJECT_FORMAT, PROJECT_VERSION, type Project } from '../io/project.js';
+import { DEFAULT_PARAMS, PARAM_SPECS, resolveParams, type ParamSpec } from '../params.js';
+import { baseStyle, BOUNDARY_STYLES, COT_FILL, graticule } from './basemap.js';
+import { colourBlock, displayRange, DOMAIN_STYLES, UNBOUNDED_COLOUR, viridis, type RampSpec } from './colour.js';
+import { clear, download, fmt, h } from './dom.js';
+import { Engine, type LoadedFile } from './engine.js';
+import type { DisplayResult, GridRole, VectorRole } from './messages.js';
+import { clearAll, loadProject, saveProject, type StoredProject } from './store.js';
+import { tilesFor, type Tile } from './tiles.js';
+import { renderMapImage } from './map-image.js';
+
+const VERSION = '0.1.0';
+const DEMO_NAME = 'Veyra margin, VM-3 Tessel licence';
+const DEMO_PARAMS = { riftAge: 110 };
+
+declare global {
+  interface Window {
+    __taperline: {
+      ready: boolean;
+      runs: number;
+      lastMillis: number;
+      error: string | null;
+      state: typeof state;
+      map: maplibregl.Map;
+    };
+  }
+}
+
+// ---------------------------------------------------------------- state
+const state = {
+  files: [] as LoadedFile[],
+  params: {} as Record<string, unknown>,
+  result: null as DisplayResult | null,
+  layer: 'crustal-thickness',
+  opacity: 0.85,
+  visible: { boundaries: true, cot: true, licence: true, seismic: true, picks: true, graticule: true, outlines: false } as Record<string, boolean>,
+  demo: false,
+  running: false,
+  rerun: false,
+  paramErrors: {} as Record<string, string>,
+};
+
+let nextId = 1;
+const engine = new Engine(() => state.files);
+
+// ---------------------------------------------------------------- layout
+const app = document.getElementById('app')!;
+const statusText = h('span', { class: 'status-text', text: 'Starting…' });
+const progressBar = h('progress', { max: 1, value: 0, hidden: true });
+const cancelBtn = h('button', { class: 'small', hidden: true, onclick: () => cancelRun() }, 'Cancel');
+const scenario = h('span', { class: 'scenario', id: 'scenario' });
+const dataList = h('div', { class: 'files', id: 'files' });
+const paramsBox = h('div', { id: 'params' });
+const layersBox = h('div', { id: 'layers' });
+const legendBox = h('div', { id: 'legend' });
+const inspectBox = h('div', { id: 'inspect', class: 'inspect' }, h('p', { class: 'hint', text: 'Move the cursor over the map.' }));
+const areasBox = h('div', { id: 'areas' });
+const warningsBox = h('div', { id: 'warnings', class: 'warnings' });
+const fileInput = h('input', { type: 'file', id: 'file-input', multiple: true, accept: '.tif,.tiff,.xyz,.txt,.csv,.dat,.geojson,.json' }) as HTMLInputElement;
+const projectInput = h('input', { type: 'file', id: 'project-input', accept: '.json', hidden: true }) as HTMLInputElement;
+const aboutDialog = h(
+  'dialog',
+  { id: 'about' },
+  h('h2', { text: 'About Taperline and its results' }),
+  h('p', {
+    text:
+      'Taperline turns depth grids of the seabed, the top of the basement and the Moho into crustal thickness, stretching (β) and thinning (γ) maps, ' +
+      'isostatic and subsidence checks, margin domains and boundary lines for rifted continental margins.',
+  }),
+  h('h3', { text: 'What the results are' }),
+  h('p', {
+    text:
+      'Interpretations. Every domain and line follows from the Moho and basement picks, the densities, the reference crustal thickness and the thresholds ' +
+      'shown under Parameters. Crust type cannot be read from thickness alone: thinned continental crust, oceanic crust and serpentinised mantle can look alike. ' +
+      'Each line says whether interpreter picks or the thickness proxy placed it, and how far it is from the nearest pick or seismic line.',
+  }),
+  h('h3', { text: 'Assumptions' }),
+  h('ul', {},
+    h('li', { text: 'Local (Airy) isostasy; no flexure, no dynamic topography.' }),
+    h('li', { text: 'McKenzie (1978) uniform, instantaneous stretching for the predicted depth and β from subsidence; basement assumed at sea level before rifting.' }),
+    h('li', { text: 'Magma-poor margin: thickness rules do not hold on magma-rich margins (seaward-dipping reflectors, thick early oceanic crust).' }),
+    h('li', { text: 'Oceanic ages from depth are indicative only and shown as wide ranges.' }),
+  ),
+  h('h3', { text: 'Who decides' }),
+  h('p', {
+    text:
+      'Licence valuation, survey permits, marine operations and drilling decisions belong to qualified professionals and to the local rules that govern them. ' +
+      'Taperline is an aid to their judgement, not a substitute for it.',
+  }),
+  h('h3', { text: 'Your data' }),
+  h('p', { text: 'Everything runs in this browser. Files are not uploaded anywhere; the project is kept in this browser’s storage until you clear it.' }),
+  h('p', { class: 'hint', text: 'The built-in demo (Veyra margin, VM-3 Tessel licence) is invented: not a real place, not real data.' }),
+  h('form', { method: 'dialog' }, h('button', { text: 'Close' })),
+);
+
+app.append(
+  h(
+    'header',
+    { class: 'top' },
+    h('span', { class: 'brand', text: 'Taperline' }),
+    scenario,
+    h('span', { class: 'spacer' }),
+    h('button', { id: 'btn-save', onclick: () => saveProjectFile(false) }, 'Save project'),
+    h('button', { id: 'btn-save-bundle', onclick: () => saveProjectFile(true) }, 'Save with data'),
+    h('button', { id: 'btn-open', onclick: () => projectInput.click() }, 'Open project'),
+    projectInput,
+    h('button', { id: 'btn-clear', onclick: () => clearLocal() }, 'Clear local data'),
+    h('button', { id: 'btn-about', onclick: () => aboutDialog.showModal() }, 'About & cautions'),
+  ),
+  h(
+    'div',
+    { class: 'caution', id: 'caution' },
+    'Interpretation aid: boundaries depend on picks, densities and thresholds. Decisions on licences, surveys and drilling rest with qualified professionals and local rules. ',
+    h('a', { href: '#', onclick: (e: Event) => (e.preventDefault(), aboutDialog.showModal()) }, 'More'),
+  ),
+  h(
+    'main',
+    {},
+    h(
+      'aside',
+      { class: 'left' },
+      h('section', {},
+        h('h2', { text: 'Data' }),
+        h('label', { class: 'drop', id: 'drop' }, h('span', { text: 'Drop GeoTIFF, XYZ or GeoJSON files here, or ' }), h('u', { text: 'choose files' }), fileInput),
+        dataList,
+        h('button', { class: 'small', id: 'btn-demo', onclick: () => loadDemo(true) }, 'Reload the invented demo'),
+      ),
+      h('section', {}, h('h2', { text: 'Parameters' }), paramsBox),
+      h('section', {}, h('h2', { text: 'Export' }), exportPanel()),
+    ),
+    h('div', { id: 'map' }),
+    h(
+      'aside',
+      { class: 'right' },
+      h('section', {}, h('h2', { text: 'Layers' }), layersBox),
+      h('section', {}, h('h2', { text: 'Legend' }), legendBox),
+      h('section', {}, h('h2', { text: 'At cursor' }), inspectBox),
+      h('section', {}, h('h2', { text: 'Areas and lengths' }), areasBox),
+      h('section', {}, h('h2', { text: 'Warnings' }), warningsBox),
+    ),
+  ),
+  h('footer', { id: 'status' }, statusText, progressBar, cancelBtn),
+  aboutDialog,
+);
+
+// ---------------------------------------------------------------- map
+const map = new maplibregl.Map({
+  container: 'map',
+  style: baseStyle(),
+  center: [-129, -35],
+  zoom: 6,
+  attributionControl: false,
+  canvasContextAttributes: { preserveDrawingBuffer: true, antialias: true },
+});
+map.addControl(new maplibregl.ScaleControl({ maxWidth: 140, unit: 'metric' }), 'bottom-left');
+map.addControl(new maplibregl.NavigationControl({ showCompass: false }), 'top-left');
+const overlay = new MapboxOverlay({ interleaved: true, layers: [] });
+map.addControl(overlay as unknown as maplibregl.IControl);
+const mapLoaded = new Promise<void>((resolve) => map.on('load', () => resolve()));
+let tiles: Tile[] = [];
+let tileKey = '';
+
+window.__taperline = { ready: false, runs: 0, lastMillis: 0, error: null, state, map };
+
+function setSource(id: string, data: unknown): void {
+  const src = map.getSource(id) as GeoJSONSource | undefined;
+  src?.setData(data as GeoJSON.FeatureCollection);
+}
+
+const layerInfo = (name: string) => DERIVED.find((d) => d.name === name);
+
+function rasterLayers(): BitmapLayer[] {
+  const r = state.result;
+  if (!r) return [];
+  const g = r.geometry;
+  const key = `${g.nx}x${g.ny}@${g.x0},${g.y0},${g.dx},${g.dy}:${g.crs.proj4}`;
+  if (key !== tileKey) {
+    tiles = tilesFor({ ...g, crs: g.crs });
+    tileKey = key;
+  }
+  const isDomains = state.layer === 'domains';
+  const values = isDomains ? r.domains : r.grids[state.layer];
+  if (!values) return [];
+  const ramp = isDomains ? null : rampFor(state.layer, values as Float32Array);
+  return tiles.map(
+    (t, k) =>
+      new BitmapLayer({
+        id: `raster-${k}`,
+        beforeId: 'domain-outlines',
+        image: new ImageData(colourBlock(values, g.nx, t.i0, t.j0, t.w, t.h, isDomains ? { kind: 'domains' } : { kind: 'ramp', ramp: ramp! }) as Uint8ClampedArray<ArrayBuffer>, t.w, t.h),
+        bounds: t.bounds,
+        opacity: state.opacity,
+        textureParameters: { minFilter: 'nearest', magFilter: 'nearest' },
+        updateTriggers: { image: `${state.layer}:${window.__taperline.runs}` },
+        pickable: false,
+      } as never),
+  );
+}
+
+const rampCache = new Map<string, RampSpec>();
+function rampFor(name: string, v: Float32Array): RampSpec {
+  const key = `${name}:${window.__taperline.runs}`;
+  let r = rampCache.get(key);
+  if (!r) {
+    r = displayRange(v);
+    if (name === 'crustal-thickness' || name === 'airy-thickness') r = { min: 0, max: Math.max(r.max, 1) };
+    if (name === 'beta-crust' || name === 'beta-subsidence') r = { min: 1, max: Math.min(Math.max(r.max, 2), 10) };
+    if (name === 'gamma') r = { min: 0, max: 1 };
+    rampCache.clear();
+    rampCache.set(key, r);
+  }
+  return r;
+}
+
+function renderRaster(): void {
+  overlay.setProps({ layers: rasterLayers() });
+  renderLegend();
+}
+
+function renderVectors(): void {
+  const r = state.result;
+  setSource('boundaries', r ? r.boundaries : { type: 'FeatureCollection', features: [] });
+  setSource('outlines', r ? r.domainOutlines : { type: 'FeatureCollection', features: [] });
+  const vec = (role: VectorRole) => {
+    const f = state.files.find((x) => x.kind === 'vector' && x.role === role && !x.error);
+    if (!f) return { type: 'FeatureCollection', features: [] };
+    try {
+      return JSON.parse(new TextDecoder().decode(f.bytes));
+    } catch {
+      return { type: 'FeatureCollection', features: [] };
+    }
+  };
+  setSource('licence', vec('licence'));
+  setSource('seismic', vec('lines'));
+  setSource('picks', vec('picks'));
+  applyVisibility();
+}
+
+function applyVisibility(): void {
+  const vis = (id: string, on: boolean) => map.getLayer(id) && map.setLayoutProperty(id, 'visibility', on ? 'visible' : 'none');
+  for (const s of BOUNDARY_STYLES) (vis(`b-${s.kind}`, state.visible.boundaries), vis(`casing-${s.kind}`, state.visible.boundaries));
+  vis('cot-zone', state.visible.cot);
+  vis('licence', state.visible.licence);
+  vis('seismic', state.visible.seismic);
+  vis('picks', state.visible.picks);
+  vis('graticule', state.visible.graticule);
+  vis('domain-outlines', state.visible.outlines);
+}
+
+function fitToGrid(): void {
+  const r = state.result;
+  if (!r) return;
+  const g = r.geometry;
+  const t = transformer({ ...g.crs }, WGS84);
+  const xs: number[] = [];
+  const ys: number[] = [];
+  for (const [i, j] of [[0, 0], [g.nx - 1, 0], [0, g.ny - 1], [g.nx - 1, g.ny - 1]]) {
+    const [lon, lat] = t.forward([g.x0 + i * g.dx, g.y0 + j * g.dy]);
+    xs.push(lon);
+    ys.push(lat);
+  }
+  const b: [number, number, number, number] = [Math.min(...xs), Math.min(...ys), Math.max(...xs), Math.max(...ys)];
+  map.fitBounds([[b[0], b[1]], [b[2], b[3]]], { padding: 30, duration: 0 });
+  setSource('graticule', graticule(b[0], b[1], b[2], b[3], 0.5));
+}
+
+// ---------------------------------------------------------------- inspect and click
+map.on('mousemove', (e: MapMouseEvent) => inspect(e.lngLat.lng, e.lngLat.lat));
+function inspect(lon: number, lat: number): void {
+  const r = state.result;
+  clear(inspectBox);
+  const rows: [string, string][] = [['lon, lat', `${lon.toFixed(5)}°, ${lat.toFixed(5)}°`]];
+  if (r) {
+    const g = r.geometry;
+    const [x, y] = transformer(WGS84, { ...g.crs }).forward([lon, lat]);
+    rows.push([`x, y (${g.crs.id === 'PROJ4' ? 'analysis CRS' : g.crs.id})`, `${fmt(x)} m, ${fmt(y)} m`]);
+    const i = Math.round((x - g.x0) / g.dx);
+    const j = Math.round((y - g.y0) / g.dy);
+    if (i >= 0 && j >= 0 && i < g.nx && j < g.ny) {
+      const k = j * g.nx + i;
+      const d = r.domains[k];
+      rows.push(['cell (col, row)', `${i}, ${j}`]);
+      rows.push(['domain', d ? DOMAIN_STYLES.find((s) => s.code === d)!.name : 'no data']);
+      for (const info of DERIVED) {
+        const v = r.grids[info.name][k];
+        const digits = info.unit === 'm' ? 0 : info.unit === 'Ma' ? 1 : 3;
+        rows.push([info.name.replace(/-/g, ' '), v === Infinity ? 'unbounded (+∞)' : `${fmt(v, digits)}${Number.isFinite(v) && info.unit ? ' ' + info.unit : ''}`]);
+      }
+    } else rows.push(['', 'outside the analysis grid']);
+  }
+  inspectBox.append(h('table', {}, ...rows.map(([a, b]) => h('tr', {}, h('th', { text: a }), h('td', { text: b })))));
+}
+
+const clickable = ['cot-zone', ...BOUNDARY_STYLES.map((s) => `b-${s.kind}`)];
+map.on('click', (e: MapMouseEvent) => {
+  const hits = map.queryRenderedFeatures(e.point, { layers: clickable.filter((id) => map.getLayer(id)) });
+  if (!hits.length) return;
+  const p = hits[0].properties as Record<string, unknown>;
+  const table = h('table', { class: 'props' }, ...Object.entries(p).map(([k, v]) => h('tr', {}, h('th', { text: k.replace(/_/g, ' ') }), h('td', { text: typeof v === 'object' ? JSON.stringify(v) : String(v) }))));
+  new maplibregl.Popup({ maxWidth: '380px' }).setLngLat(e.lngLat).setDOMContent(h('div', { class: 'popup', id: 'boundary-popup' }, table)).addTo(map);
+});
+for (const id of clickable) {
+  map.on('mouseenter', id, () => (map.getCanvas().style.cursor = 'pointer'));
+  map.on('mouseleave', id, () => (map.getCanvas().style.cursor = ''));
+}
+
+// ---------------------------------------------------------------- panels
+function renderLayers(): void {
+  clear(layersBox);
+  const select = h('select', { id: 'layer-select', onchange: (e: Event) => ((state.layer = (e.target as HTMLSelectElement).value), renderRaster(), autosave()) },
+    h('option', { value: 'domains', text: 'Margin domains' }),
+    ...DERIVED.map((d) => h('option', { value: d.name, text: d.name.replace(/-/g, ' ') + (d.unit ? ` (${d.unit})` : '') })),
+  ) as HTMLSelectElement;
+  select.value = state.layer;
+  const opacity = h('input', { type: 'range', min: 0, max: 1, step: 0.05, value: state.opacity, id: 'opacity',
+    oninput: (e: Event) => ((state.opacity = Number((e.target as HTMLInputElement).value)), renderRaster()) });
+  const check = (key: string, label: string) =>
+    h('label', { class: 'check' }, h('input', { type: 'checkbox', id: `vis-${key}`, checked: state.visible[key],
+      onchange: (e: Event) => ((state.visible[key] = (e.target as HTMLInputElement).checked), applyVisibility(), autosave()) }), label);
+  layersBox.append(
+    h('label', { class: 'row' }, h('span', { text: 'Raster' }), select),
+    h('label', { class: 'row' }, h('span', { text: 'Opacity' }), opacity),
+    check('boundaries', 'Boundary lines'), check('cot', 'COT zone'), check('licence', 'Licence'), check('seismic', 'Existing seismic lines'),
+    check('picks', 'Picks'), check('outlines', 'Domain cell outlines'), check('graticule', 'Graticule (0.5°)'),
+  );
+}
+
+function swatchLine(colour: string, dash: number[] | null, width: number, faint = false): SVGSVGElement {
+  const ns = 'http://www.w3.org/2000/svg';
+  const svg = document.createElementNS(ns, 'svg');
+  svg.setAttribute('width', '44');
+  svg.setAttribute('height', '12');
+  const line = document.createElementNS(ns, 'line');
+  line.setAttribute('x1', '2');
+  line.setAttribute('x2', '42');
+  line.setAttribute('y1', '6');
+  line.setAttribute('y2', '6');
+  line.setAttribute('stroke', colour);
+  line.setAttribute('stroke-width', String(width));
+  if (faint) line.setAttribute('stroke-opacity', '0.75');
+  if (dash) line.setAttribute('stroke-dasharray', dash.map((d) => d * width).join(' '));
+  svg.append(line);
+  return svg;
+}
+
+function renderLegend(): void {
+  clear(legendBox);
+  const r = state.result;
+  if (r) {
+    if (state.layer === 'domains') {
+      legendBox.append(h('div', { class: 'legend-title', text: 'Margin domains (interpretation)' }));
+      for (const d of DOMAIN_STYLES) legendBox.append(h('div', { class: 'swatch-row' }, h('span', { class: 'swatch', style: `background: rgb(${d.colour.join(',')})` }), d.name));
+    } else {
+      const info = layerInfo(state.layer)!;
+      const ramp = rampFor(state.layer, r.grids[state.layer]);
+      const stops = Array.from({ length: 11 }, (_, k) => `rgb(${viridis(k / 10).join(',')}) ${k * 10}%`).join(', ');
+      legendBox.append(
+        h('div', { class: 'legend-title', text: `${info.desc}` }),
+        h('div', { class: 'ramp', style: `background: linear-gradient(to right, ${stops})` }),
+        h('div', { class: 'ramp-labels' }, h('span', { text: `${fmt(ramp.min, info.unit === 'm' ? 0 : 2)}` }), h('span', { text: info.unit || '(no unit)' }), h('span', { text: `${fmt(ramp.max, info.unit === 'm' ? 0 : 2)}` })),
+      );
+      if (/beta|ratio|age-max/.test(state.layer)) {
+        legendBox.append(h('div', { class: 'swatch-row' }, h('span', { class: 'swatch', style: `background: rgb(${UNBOUNDED_COLOUR.join(',')})` }), state.layer.includes('age') ? 'no finite age (beyond the curve’s asymptote)' : 'unbounded (no crust / beyond β = ∞)'));
+      }
+    }
+  }
+  legendBox.append(h('div', { class: 'legend-title', text: 'Boundaries' }));
+  for (const s of BOUNDARY_STYLES) legendBox.append(h('div', { class: 'swatch-row' }, swatchLine(s.colour, s.dash, s.width), s.label));
+  legendBox.append(
+    h('div', { class: 'swatch-row' }, h('span', { class: 'swatch', style: `background: ${COT_FILL}; opacity: 0.5` }), 'Continent–ocean transition zone'),
+    h('div', { class: 'swatch-row' }, swatchLine('#555', null, 4), 'placed by picks (bold)'),
+    h('div', { class: 'swatch-row' }, swatchLine('#555', null, 2, true), 'placed by the thickness proxy (thin)'),
+    h('div', { class: 'swatch-row' }, swatchLine('#111', [2.5, 1], 2), 'Licence'),
+    h('div', { class: 'swatch-row' }, swatchLine('#3b3b3b', null, 1.6), 'Existing seismic line'),
+    h('div', { class: 'swatch-row' }, h('span', { class: 'swatch dot' }), 'Interpreter pick'),
+  );
+}
+
+function renderAreas(): void {
+  clear(areasBox);
+  const r = state.result;
+  if (!r) return;
+  const s = r.summary;
+  const list = s.areasInLicence ?? s.areas;
+  areasBox.append(h('div', { class: 'legend-title', text: s.areasInLicence ? `Inside ${s.licenceName}` : 'Whole grid' }));
+  const rows = list.filter((a) => a.code > 0).map((a) => h('tr', {}, h('th', { text: DOMAIN_STYLES.find((d) => d.code === a.code)!.name }), h('td', { text: `${fmt(a.km2)} km²` })));
+  const lengths = Object.entries(s.lengths).map(([k, v]) => h('tr', {}, h('th', { text: k.replace(/-/g, ' ') }), h('td', { text: `${fmt(v, 1)} km` })));
+  areasBox.append(
+    h('table', { id: 'areas-table' }, ...rows, h('tr', {}, h('th', { text: 'COT zone' }), h('td', { text: `${fmt(s.cotAreaKm2)} km²` })), ...lengths),
+    h('p', { class: 'hint', text: `Geodesic (WGS84). Oceanward azimuth ${s.oceanwardAzimuth.toFixed(0)}°. Computed in ${fmt(r.millis)} ms.` }),
+  );
+  clear(warningsBox);
+  const w = [...s.warnings];
+  if (!w.length) warningsBox.append(h('p', { class: 'hint', text: 'None.' }));
+  for (const text of w) warningsBox.append(h('p', { class: 'warning', text }));
+}
+
+function paramInput(spec: ParamSpec): HTMLElement {
+  const current = state.params[spec.key] ?? DEFAULT_PARAMS[spec.key];
+  const onchange = (e: Event) => {
+    const raw = (e.target as HTMLInputElement | HTMLSelectElement).value;
+    const v = spec.choices ? raw : raw.trim() === '' ? (spec.nullable ? null : raw) : Number(raw);
+    const next = { ...state.params, [spec.key]: v };
+    try {
+      resolveParams(next);
+      delete state.paramErrors[spec.key];
+      state.params = next;
+      scheduleRun();
+      autosave();
+    } catch (err) {
+      state.paramErrors[spec.key] = (err as Error).message;
+    }
+    renderParams();
+  };
+  const input = spec.choices
+    ? h('select', { id: `p-${spec.key}`, onchange }, ...spec.choices.map((c) => h('option', { value: c, text: c, selected: c === current })))
+    : h('input', { id: `p-${spec.key}`, type: 'number', step: 'any', value: current === null ? '' : String(current), placeholder: spec.nullable ? 'not set' : '', onchange });
+  const def = DEFAULT_PARAMS[spec.key];
+  return h(
+    'div',
+    { class: 'param' },
+    h('label', { for: `p-${spec.key}`, text: spec.label }),
+    h('div', { class: 'param-input' }, input, h('span', { class: 'unit', text: spec.unit })),
+    h('div', { class: 'doc', text: `${spec.doc} Default ${def === null ? 'none' : def}${spec.unit && def !== null && !spec.choices ? ' ' + spec.unit : ''}. Source: ${spec.source}.` }),
+    state.paramErrors[spec.key] ? h('div', { class: 'error', text: state.paramErrors[spec.key] }) : null,
+  );
+}
+
+function renderParams(): void {
+  clear(paramsBox);
+  const groups: Record<string, string> = { crust: 'Crust', densities: 'Densities', sediment: 'Sediment', subsidence: 'Subsidence (McKenzie 1978)', age: 'Oceanic age', picks: 'Pick tolerances', domains: 'Domains', lines: 'Lines' };
+  for (const [g, title] of Object.entries(groups)) {
+    const specs = PARAM_SPECS.filter((s) => s.group === g);
+    paramsBox.append(h('details', { open: g === 'crust' || g === 'domains' || g === 'subsidence' }, h('summary', { text: title }), ...specs.map(paramInput)));
+  }
+  paramsBox.append(h('button', { class: 'small', onclick: () => ((state.params = state.demo ? { ...DEMO_PARAMS } : {}), (state.paramErrors = {}), renderParams(), scheduleRun(), autosave()) }, 'Reset to defaults'));
+}
+
+const ROLES: Record<'grid' | 'vector', string[]> = {
+  grid: ['top-basement', 'moho', 'seabed', 'none'],
+  vector: ['licence', 'lines', 'picks', 'isochrons', 'crust', 'none'],
+};
+
+function renderFiles(): void {
+  clear(dataList);
+  for (const f of state.files) {
+    const role = h('select', { class: 'role', 'data-file': f.name, onchange: (e: Event) => setRole(f, (e.target as HTMLSelectElement).value) },
+      ...ROLES[f.kind].map((r) => h('option', { value: r, text: r === 'none' ? 'not used' : r, selected: r === f.role })));
+    const rep = f.report;
+    const details: (HTMLElement | null)[] = [];
+    if (rep) {
+      details.push(
+        h('div', { class: 'report', text: `${rep.nx} × ${rep.ny} cells of ${fmt(Math.abs(rep.dx), 1)} m, ${rep.crs.value} (${rep.crs.detail}), ${rep.registration.value}-registered` }),
+        h('div', { class: 'report', text: `units ${rep.units.value} (${rep.units.detail}); ${rep.sign.value} (${rep.sign.detail}); no data: ${rep.noData.total} cells${Object.keys(rep.noData.masked).length ? ' [' + Object.entries(rep.noData.masked).map(([k, n]) => `${k}: ${n}`).join(', ') + ']' : ''}` }),
+        ...rep.warnings.map((w) => h('div', { class: 'warning', text: w })),
+        h('div', { class: 'overrides' },
+          h('label', {}, 'units ', h('select', { onchange: (e: Event) => override(f, 'units', (e.target as HTMLSelectElement).value) },
+            ...['auto', 'm', 'km', 'ft'].map((u) => h('option', { value: u, text: u, selected: (f.options.units ?? 'auto') === u })))),
+          h('label', {}, ' sign ', h('select', { onchange: (e: Event) => override(f, 'sign', (e.target as HTMLSelectElement).value) },
+            ...['auto', 'depth', 'elevation'].map((u) => h('option', { value: u, text: u, selected: (f.options.sign ?? 'auto') === u })))),
+        ),
+      );
+    } else if (f.kind === 'vector' && !f.error) {
+      details.push(h('div', { class: 'report', text: `${f.features ?? 0} features (GeoJSON, WGS84)` }), ...(f.warnings ?? []).map((w) => h('div', { class: 'warning', text: w })));
+    }
+    dataList.append(
+      h('div', { class: `file${f.error ? ' has-error' : ''}`, 'data-name': f.name },
+        h('div', { class: 'file-head' }, h('span', { class: 'file-name', text: f.name }), role,
+          h('button', { class: 'x', title: 'Remove', onclick: () => removeFile(f) }, '×')),
+        f.error ? h('div', { class: 'error file-error', text: f.error }) : null,
+        ...details,
+      ),
+    );
+  }
+}
+
+function exportPanel(): HTMLElement {
+  const gridSelect = h('select', { id: 'export-grid' }, h('option', { value: 'domains', text: 'domains' }), ...DERIVED.map((d) => h('option', { value: d.name, text: d.name }))) as HTMLSelectElement;
+  const get = async (path: string, type: string) => {
+    setStatus('Preparing export…');
+    const files = await engine.exportAll(VERSION);
+    download(path.split('/').pop()!, files[path], type);
+    setStatus(`Exported ${path}`);
+  };
+  return h('div', { class: 'export' },
+    h('button', { id: 'export-boundaries', onclick: () => get('boundaries.geojson', 'application/geo+json') }, 'boundaries.geojson'),
+    h('button', { id: 'export-domains', onclick: () => get('domains.geojson', 'application/geo+json') }, 'domains.geojson'),
+    h('button', { id: 'export-summary', onclick: () => get('summary.json', 'application/json') }, 'summary.json'),
+    h('div', { class: 'row' }, gridSelect, h('button', { id: 'export-grid-btn', onclick: () => get(`grids/${gridSelect.value}.tif`, 'image/tiff') }, 'GeoTIFF')),
+    h('button', { id: 'export-png', onclick: () => exportImage() }, 'Map image (PNG)'),
+  );
+}
+
+async function exportImage(): Promise<void> {
+  const png = await renderMapImage(map, {
+    title: `${state.layer === 'domains' ? 'Margin domains' : layerInfo(state.layer)?.desc ?? state.layer}`,
+    subtitle: state.demo ? `${DEMO_NAME} — INVENTED DEMO DATA` : state.files.filter((f) => f.role !== 'none').map((f) => f.name).join(', '),
+    legend: legendBox,
+  });
+  download('taperline-map.png', await png.arrayBuffer(), 'image/png');
+}
+
+// ---------------------------------------------------------------- files
+function kindOf(name: string): 'grid' | 'vector' | null {
+  if (/\.(tif|tiff|gtiff|xyz|txt|csv|dat)$/i.test(name)) return 'grid';
+  if (/\.(geojson|json)$/i.test(name)) return 'vector';
+  return null;
+}
+
+function guessVectorRole(name: string): VectorRole | 'none' {
+  const n = name.toLowerCase();
+  if (/licen[cs]e|block|permit|concession/.test(n)) return 'licence';
+  if (/pick/.test(n)) return 'picks';
+  if (/isochron|chron|magnetic/.test(n)) return 'isochrons';
+  if (/crust/.test(n)) return 'crust';
+  if (/line|seismic|survey/.test(n)) return 'lines';
+  return 'none';
+}
+
+async function addFile(name: string, bytes: ArrayBuffer, role?: string, options: LoadedFile['options'] = {}, quiet = false): Promise<LoadedFile | null> {
+  const kind = kindOf(name);
+  if (!kind) {
+    setStatus(`${name}: not a file Taperline reads (GeoTIFF, XYZ text or GeoJSON)`, true);
+    state.files.push({ id: `f${nextId++}`, name, kind: 'vector', role: 'none', bytes, options, report: null, error: 'not a file Taperline reads (GeoTIFF .tif, XYZ text .xyz/.txt/.csv, GeoJSON .geojson)' });
+    renderFiles();
+    return null;
+  }
+  let r = role;
+  if (!r) {
+    if (kind === 'grid') {
+      const g = guessRole(name);
+      r = g === 'other' ? (state.files.some((f) => f.role === 'top-basement') ? 'none' : 'top-basement') : g;
+    } else r = guessVectorRole(name);
+  }
+  const f: LoadedFile = { id: `f${nextId++}`, name, kind, role: r as LoadedFile['role'], bytes, options: { ...options }, report: null, error: null };
+  // one file per role: a new file takes the role over
+  if (f.role !== 'none') for (const o of state.files) if (o.role === f.role) o.role = 'none';
+  state.files.push(f);
+  await reload(f);
+  if (!quiet) {
+    renderFiles();
+    renderVectors();
+    scheduleRun();
+    autosave();
+  }
+  return f;
+}
+
+async function reload(f: LoadedFile): Promise<void> {
+  if (f.kind === 'grid') {
+    const basement = state.files.find((x) => x.role === 'top-basement' && x.report);
+    f.options = { ...f.options, role: f.role === 'none' ? undefined : (f.role as GridRole) } as LoadedFile['options'];
+    if (basement && basement !== f) (f.options as { assumeCrs?: string }).assumeCrs = basement.report!.crs.value;
+  }
+  try {
+    const res = await engine.load(f);
+    f.report = res.report;
+    f.features = res.features;
+    f.warnings = res.warnings;
+    f.error = null;
+  } catch (err) {
+    f.error = (err as Error).message.replace(`${f.name}: `, '');
+    f.report = null;
+    if (f.role !== 'none') f.role = 'none';
+    setStatus(`${f.name}: ${f.error}`, true);
+  }
+}
+
+function setRole(f: LoadedFile, role: string): void {
+  if (role !== 'none') for (const o of state.files) if (o !== f && o.role === role) o.role = 'none';
+  f.role = role as LoadedFile['role'];
+  void reload(f).then(() => (renderFiles(), renderVectors(), scheduleRun(), autosave()));
+}
+
+function override(f: LoadedFile, key: 'units' | 'sign', value: string): void {
+  if (value === 'auto') delete (f.options as Record<string, unknown>)[key];
+  else (f.options as Record<string, unknown>)[key] = value;
+  void reload(f).then(() => (renderFiles(), scheduleRun(), autosave()));
+}
+
+function removeFile(f: LoadedFile): void {
+  state.files = state.files.filter((x) => x !== f);
+  engine.remove(f.id);
+  renderFiles();
+  renderVectors();
+  scheduleRun();
+  autosave();
+}
+
+async function handleFiles(list: FileList | File[]): Promise<void> {
+  for (const file of Array.from(list)) {
+    state.demo = false;
+    await addFile(file.name, await file.arrayBuffer());
+  }
+  renderScenario();
+}
+
+fileInput.addEventListener('change', () => {
+  if (fileInput.files) void handleFiles(fileInput.files).then(() => (fileInput.value = ''));
+});
+const drop = document.getElementById('drop')!;
+drop.addEventListener('dragover', (e) => (e.preventDefault(), drop.classList.add('over')));
+drop.addEventListener('dragleave', () => drop.classList.remove('over'));
+drop.addEventListener('drop', (e) => {
+  e.preventDefault();
+  drop.classList.remove('over');
+  if (e.dataTransfer?.files) void handleFiles(e.dataTransfer.files);
+});
+map.getContainer().addEventListener('dragover', (e) => e.preventDefault());
+map.getContainer().addEventListener('drop', (e) => {
+  e.preventDefault();
+  if (e.dataTransfer?.files) void handleFiles(e.dataTransfer.files);
+});
+
+async function loadDemo(reset: boolean): Promise<void> {
+  setStatus('Building the invented demo scenario…');
+  if (reset) {
+    for (const f of state.files) engine.remove(f.id);
+    state.files = [];
+  }
+  const files = await engine.makeDemo();
+  const roles: Record<string, string> = { 'seabed.tif': 'seabed', 'top-basement.tif': 'top-basement', 'moho.tif': 'moho', 'licence.geojson': 'licence', 'seismic-lines.geojson': 'lines', 'picks.geojson': 'picks', 'isochrons.geojson': 'isochrons' };
+  for (const name of ['top-basement.tif', 'moho.tif', 'seabed.tif', 'licence.geojson', 'seismic-lines.geojson', 'picks.geojson', 'isochrons.geojson']) {
+    const f = files.find((x) => x.name === name)!;
+    await addFile(name, f.bytes, roles[name], {}, true);
+  }
+  state.demo = true;
+  state.params = { ...DEMO_PARAMS };
+  renderScenario();
+  renderFiles();
+  renderParams();
+  renderVectors();
+  await run(true);
+  autosave();
+}
+
+function renderScenario(): void {
+  scenario.textContent = state.demo ? `${DEMO_NAME} — invented demo data, not a real place` : state.files.length ? 'Your data (kept in this browser only)' : 'No data loaded';
+  scenario.classList.toggle('demo', state.demo);
+}
+
+// ---------------------------------------------------------------- run
+let runTimer: ReturnType<typeof setTimeout> | null = null;
+function scheduleRun(): void {
+  if (runTimer) clearTimeout(runTimer);
+  runTimer = setTimeout(() => void run(false), 250);
+}
+
+async function run(fit: boolean): Promise<void> {
+  if (state.running) {
+    state.rerun = true;
+    return;
+  }
+  const ready = state.files.some((f) => f.role === 'top-basement' && !f.error) && state.files.some((f) => f.role === 'moho' && !f.error);
+  if (!ready) {
+    setStatus('Assign a top-basement grid and a Moho grid under Data to compute.');
+    return;
+  }
+  state.running = true;
+  const t0 = performance.now();
+  const showProgress = setTimeout(() => ((progressBar.hidden = false), (cancelBtn.hidden = false)), 300);
+  engine.onProgress = (stage, fraction) => {
+    progressBar.value = fraction;
+    statusText.textContent = `Computing: ${stage}…`;
+  };
+  statusText.textContent = 'Computing…';
+  try {
+    const result = await engine.run(state.params);
+    state.result = result;
+    window.__taperline.runs++;
+    window.__taperline.lastMillis = performance.now() - t0;
+    await mapLoaded;
+    if (fit || !state.result) fitToGrid();
+    renderRaster();
+    renderVectors();
+    renderAreas();
+    setStatus(`Done in ${fmt(performance.now() - t0)} ms (pipeline ${fmt(result.millis)} ms). ${result.summary.warnings.length} warnings.`);
+    map.once('idle', () => (window.__taperline.ready = true));
+    map.triggerRepaint();
+  } catch (err) {
+    const msg = (err as Error).message;
+    window.__taperline.error = msg;
+    setStatus(msg === 'cancelled' ? 'Cancelled: the previous results stay on the map.' : `Could not compute: ${msg}`, msg !== 'cancelled');
+  } finally {
+    clearTimeout(showProgress);
+    progressBar.hidden = true;
+    cancelBtn.hidden = true;
+    state.running = false;
+    if (state.rerun) {
+      state.rerun = false;
+      void run(false);
+    }
+  }
+}
+
+function cancelRun(): void {
+  state.rerun = false;
+  void engine.cancel();
+}
+
+function setStatus(text: string, error = false): void {
+  statusText.textContent = text;
+  statusText.classList.toggle('error', error);
+}
+
+// ---------------------------------------------------------------- keep the work
+let saveTimer: ReturnType<typeof setTimeout> | null = null;
+function autosave(): void {
+  if (saveTimer) clearTimeout(saveTimer);
+  saveTimer = setTimeout(() => void saveProject(snapshot()).catch((e) => setStatus(`Autosave failed: ${(e as Error).message}`, true)), 300);
+}
+
+function viewState() {
+  const c = map.getCenter();
+  return { center: [c.lng, c.lat] as [number, number], zoom: map.getZoom(), layer: state.layer, opacity: state.opacity, visible: { ...state.visible } };
+}
+
+function snapshot(): StoredProject {
+  return {
+    files: state.files.filter((f) => !f.error).map((f) => ({ id: f.id, name: f.name, kind: f.kind, role: f.role, options: { ...f.options } as Record<string, unknown>, bytes: f.bytes })),
+    params: { ...state.params },
+    view: viewState(),
+    demo: state.demo,
+  };
+}
+map.on('moveend', () => autosave());
+
+async function restore(p: StoredProject): Promise<void> {
+  setStatus('Restoring your last session…');
+  for (const f of p.files) await addFile(f.name, f.bytes, f.role, f.options as LoadedFile['options'], true);
+  state.params = p.params ?? {};
+  state.demo = p.demo;
+  if (p.view) {
+    state.layer = p.view.layer;
+    state.opacity = p.view.opacity;
+    state.visible = { ...state.visible, ...p.view.visible };
+  }
+  renderScenario();
+  renderFiles();
+  renderParams();
+  renderLayers();
+  renderVectors();
+  await run(!p.view);
+  if (p.view) map.jumpTo({ center: p.view.center, zoom: p.view.zoom });
+}
+
+async function sha256(bytes: ArrayBuffer): Promise<string> {
+  const d = await crypto.subtle.digest('SHA-256', bytes);
+  return [...new Uint8Array(d)].map((b) => b.toString(16).padStart(2, '0')).join('');
+}
+
+async function saveProjectFile(bundle: boolean): Promise<void> {
+  const inputs = [];
+  for (const f of state.files.filter((x) => !x.error)) {
+    inputs.push({ name: f.name, kind: f.kind, role: f.role, bytes: f.bytes.byteLength, sha256: await sha256(f.bytes), options: f.options, ...(bundle ? { data: toBase64(new Uint8Array(f.bytes)) } : {}) });
+  }
+  const project: Project = { format: PROJECT_FORMAT, version: PROJECT_VERSION, saved: new Date().toISOString(), tool: `taperline ${VERSION}`, params: resolveParams(state.params) as unknown as Record<string, unknown>, inputs, view: viewState() };
+  download(bundle ? 'project-with-data.taperline.json' : 'project.taperline.json', JSON.stringify(project, null, 1), 'application/json');
+}
+
+projectInput.addEventListener('change', async () => {
+  const file = projectInput.files?.[0];
+  projectInput.value = '';
+  if (!file) return;
+  try {
+    const p = parseProject(await file.text(), file.name);
+    const byHash = new Map<string, LoadedFile>();
+    for (const f of state.files) byHash.set(await sha256(f.bytes), f);
+    const missing: string[] = [];
+    const files: { name: string; bytes: ArrayBuffer; role: string; options: LoadedFile['options'] }[] = [];
+    for (const i of p.inputs) {
+      const have = byHash.get(i.sha256);
+      if (i.data) files.push({ name: i.name, bytes: fromBase64(i.data).slice().buffer as ArrayBuffer, role: i.role, options: i.options });
+      else if (have) files.push({ name: i.name, bytes: have.bytes, role: i.role, options: i.options });
+      else missing.push(`${i.name} (${i.bytes} bytes)`);
+    }
+    if (missing.length) {
+      setStatus(`${file.name}: load these inputs first, then open the project again: ${missing.join(', ')}`, true);
+      return;
+    }
+    for (const f of state.files) engine.remove(f.id);
+    state.files = [];
+    await restore({ files: files.map((f, k) => ({ id: `p${k}`, name: f.name, kind: kindOf(f.name) ?? 'vector', role: f.role, options: f.options as Record<string, unknown>, bytes: f.bytes })), params: p.params, view: p.view, demo: false });
+    autosave();
+    setStatus(`Opened ${file.name}`);
+  } catch (err) {
+    setStatus((err as Error).message, true);
+  }
+});
+
+async function clearLocal(): Promise<void> {
+  if (!confirm('Remove every file and setting Taperline keeps in this browser, and start again on the invented demo?')) return;
+  await clearAll();
+  location.reload();
+}
+
+// ---------------------------------------------------------------- start
+renderLayers();
+renderLegend();
+renderParams();
+void (async () => {
+  let stored: StoredProject | null = null;
+  try {
+    stored = await loadProject();
+  } catch {
+    stored = null;
+  }
+  if (stored && stored.files.length) await restore(stored);
+  else await loadDemo(false);
+})();

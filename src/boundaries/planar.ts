@@ -89,3 +89,25 @@ export function signedArea(ring: Ring): number {
   for (let k = 0; k < ring.length - 1; k++) s += ring[k][0] * ring[k + 1][1] - ring[k + 1][0] * ring[k][1];
   return s / 2;
 }
+
+/** Douglas–Peucker simplification (iterative), keeping the end points; tolerance in map units. */
+export function simplifyPath(path: Ring, tolerance: number): Ring {
+  if (path.length <= 2) return path.slice();
+  const keep = new Uint8Array(path.length);
+  keep[0] = keep[path.length - 1] = 1;
+  const stack: [number, number][] = [[0, path.length - 1]];
+  while (stack.length) {
+    const [a, b] = stack.pop()!;
+    let worst = -1;
+    let at = -1;
+    for (let k = a + 1; k < b; k++) {
+      const d = pointSegmentDistance(path[k][0], path[k][1], path[a][0], path[a][1], path[b][0], path[b][1]);
+      if (d > worst) (worst = d), (at = k);
+    }
+    if (worst > tolerance) {
+      keep[at] = 1;
+      stack.push([a, at], [at, b]);
+    }
+  }
+  return path.filter((_, k) => keep[k]);
+}

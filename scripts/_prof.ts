@@ -1,0 +1,11 @@
+import { runDemo } from '../tests/helpers/demo-run.js';
+import { boundariesGeoJson, domainsGeoJson } from '../src/export/geojson.js';
+import { summary } from '../src/export/outputs.js';
+let t = performance.now();
+const lap = (s: string) => { const n = performance.now(); console.log(s, (n - t).toFixed(0), 'ms'); t = n; };
+const r = await runDemo({ picks: true, licence: true, isochrons: true, lines: true }); lap('pipeline (incl read)');
+const r2 = await runDemo({ picks: true, licence: true, isochrons: true, lines: true }); lap('pipeline again');
+boundariesGeoJson(r2, 'regional'); lap('boundaries geojson');
+domainsGeoJson(r2); lap('domains geojson');
+summary(r2, { version: '', time: '', tool: 'app' }); lap('summary');
+void r;

@@ -1,0 +1,117 @@
+/**
+ * The offline map style: a background, Natural Earth land (public domain, from the world-atlas
+ * package, bundled), a graticule generated here, and empty GeoJSON sources for our data. No tiles,
+ * no sprite, no glyphs: nothing is fetched.
+ */
+
+import type { StyleSpecification } from 'maplibre-gl';
+import { feature } from 'topojson-client';
+import land50 from 'world-atlas/land-50m.json';
+
+export const COLOURS = {
+  sea: '#dfe7ee',
+  land: '#c9c3b6',
+  coast: '#8d877b',
+  graticule: '#9aa6b2',
+  licence: '#111111',
+  seismic: '#3b3b3b',
+  picks: '#ffffff',
+};
+
+// Boundary styles: Okabe & Ito (2008) colour-blind-safe palette, plus distinct dash patterns, so the
+// lines stay apart without colour too.
+export const BOUNDARY_STYLES: { kind: string; label: string; colour: string; dash: number[] | null; width: number }[] = [
+  { kind: 'crustal-taper-limit', label: 'Crustal taper limit', colour: '#D55E00', dash: null, width: 3 },
+  { kind: 'oldest-onlapped-crust', label: 'Oldest onlapped (oceanic) crust', colour: '#0072B2', dash: [3, 1.5], width: 3 },
+  { kind: 'necking-line', label: 'Necking line (0.8 · tc0)', colour: '#000000', dash: [0.6, 1.4], width: 2.5 },
+  { kind: 'coupling-line', label: 'Coupling line (10 km crust)', colour: '#CC79A7', dash: [4, 1.5, 0.8, 1.5], width: 2.5 },
+];
+export const COT_FILL = '#E69F00';
+
+export function landGeoJson(): GeoJSON.FeatureCollection {
+  // topojson-client's feature() returns a FeatureCollection for a GeometryCollection object.
+  const topo = land50 as unknown as Parameters<typeof feature>[0];
+  return feature(topo, (topo as unknown as { objects: Record<string, never> }).objects.land) as unknown as GeoJSON.FeatureCollection;
+}
+
+export function graticule(west: number, south: number, east: number, north: number, step = 1): GeoJSON.FeatureCollection {
+  const features: GeoJSON.Feature[] = [];
+  const w = Math.floor(west / step) * step - 5 * step;
+  const e = Math.ceil(east / step) * step + 5 * step;
+  const s = Math.max(-85, Math.floor(south / step) * step - 5 * step);
+  const n = Math.min(85, Math.ceil(north / step) * step + 5 * step);
+  for (let lon = w; lon <= e; lon += step) {
+    const coords: [number, number][] = [];
+    for (let lat = s; lat <= n; lat += step / 10) coords.push([lon, lat]);
+    features.push({ type: 'Feature', properties: { lon }, geometry: { type: 'LineString', coordinates: coords } });
+  }
+  for (let lat = s; lat <= n; lat += step) {
+    const coords: [number, number][] = [];
+    for (let lon = w; lon <= e; lon += step / 10) coords.push([lon, lat]);
+    features.push({ type: 'Feature', properties: { lat }, geometry: { type: 'LineString', coordinates: coords } });
+  }
+  return { type: 'FeatureCollection', features };
+}
+
+const empty: GeoJSON.FeatureCollection = { type: 'FeatureCollection', features: [] };
+
+export function baseStyle(): StyleSpecification {
+  const src = (data: GeoJSON.FeatureCollection = empty) => ({ type: 'geojson' as const, data });
+  return {
+    version: 8,
+    sources: {
+      land: src(landGeoJson()),
+      graticule: src(),
+      licence: src(),
+      seismic: src(),
+      picks: src(),
+      boundaries: src(),
+      outlines: src(),
+    },
+    layers: [
+      { id: 'sea', type: 'background', paint: { 'background-color': COLOURS.sea } },
+      { id: 'land', type: 'fill', source: 'land', paint: { 'fill-color': COLOURS.land } },
+      { id: 'coast', type: 'line', source: 'land', paint: { 'line-color': COLOURS.coast, 'line-width': 0.8 } },
+      { id: 'graticule', type: 'line', source: 'graticule', paint: { 'line-color': COLOURS.graticule, 'line-width': 0.6, 'line-opacity': 0.7 } },
+      { id: 'domain-outlines', type: 'line', source: 'outlines', layout: { visibility: 'none' }, paint: { 'line-color': '#202020', 'line-width': 1 } },
+      {
+        id: 'cot-zone',
+        type: 'fill',
+        source: 'boundaries',
+        filter: ['==', ['get', 'kind'], 'cot-zone'],
+        paint: { 'fill-color': COT_FILL, 'fill-opacity': 0.22, 'fill-outline-color': COT_FILL },
+      },
+      { id: 'seismic', type: 'line', source: 'seismic', paint: { 'line-color': COLOURS.seismic, 'line-width': 1.6, 'line-dasharray': [1, 0] } },
+      { id: 'licence', type: 'line', source: 'licence', paint: { 'line-color': COLOURS.licence, 'line-width': 2, 'line-dasharray': [5, 2] } },
+      // a pale casing under every boundary keeps it readable over dark and light rasters alike
+      ...BOUNDARY_STYLES.map((s) => ({
+        id: `casing-${s.kind}`,
+        type: 'line' as const,
+        source: 'boundaries',
+        filter: ['==', ['get', 'kind'], s.kind] as ['==', ['get', string], string],
+        layout: { 'line-join': 'round' as const },
+        paint: { 'line-color': '#ffffff', 'line-opacity': 0.85, 'line-width': ['case', ['==', ['get', 'evidence'], 'picks'], s.width + 3, s.width + 1.5] as never },
+      })),
+      ...BOUNDARY_STYLES.map((s) => ({
+        id: `b-${s.kind}`,
+        type: 'line' as const,
+        source: 'boundaries',
+        filter: ['==', ['get', 'kind'], s.kind] as ['==', ['get', string], string],
+        layout: { 'line-cap': 'butt' as const, 'line-join': 'round' as const },
+        paint: {
+          'line-color': s.colour,
+          // placed by picks: full width and opacity; by the thickness proxy: thinner and fainter
+          'line-width': ['case', ['==', ['get', 'evidence'], 'picks'], s.width + 1, s.width - 0.5] as never,
+          'line-opacity': ['case', ['==', ['get', 'evidence'], 'picks'], 1, 0.75] as never,
+          ...(s.dash ? { 'line-dasharray': s.dash } : {}),
+        },
+      })),
+      {
+        id: 'picks',
+        type: 'circle',
+        source: 'picks',
+        paint: { 'circle-radius': 5, 'circle-color': COLOURS.picks, 'circle-stroke-color': '#000', 'circle-stroke-width': 1.5 },
+      },
+    ],
+  };
+}

@@ -1,0 +1,58 @@
+/** The one typed table of messages between the app and its pipeline worker. */
+
+import type { GridReadOptions } from '../io/geotiff-read.js';
+import type { GridReadReport } from '../io/report.js';
+import type { GridGeometry } from '../grid/geometry.js';
+
+export type GridRole = 'seabed' | 'top-basement' | 'moho';
+export type VectorRole = 'licence' | 'lines' | 'picks' | 'isochrons' | 'crust';
+
+export interface DisplayGeometry extends Omit<GridGeometry, 'crs'> {
+  readonly crs: { id: string; name: string; proj4: string; epsg?: number; units: 'm' | 'degree' };
+}
+
+export interface RunSummary {
+  readonly areas: { code: number; cells: number; km2: number }[];
+  readonly areasInLicence: { code: number; cells: number; km2: number }[] | null;
+  readonly licenceName: string | null;
+  readonly lengths: Record<string, number>;
+  readonly cotAreaKm2: number;
+  readonly warnings: string[];
+  readonly missing: { kind: string; reason: string }[];
+  readonly oceanwardAzimuth: number;
+  readonly suggestedTc0: number | null;
+}
+
+export interface DisplayResult {
+  readonly geometry: DisplayGeometry;
+  /** Derived grids by name (Float32, analysis grid), plus 'domains' as codes. */
+  readonly grids: Record<string, Float32Array>;
+  readonly domains: Uint8Array;
+  readonly boundaries: unknown; // RFC 7946 FeatureCollection (whole grid)
+  readonly domainOutlines: unknown; // RFC 7946 FeatureCollection
+  readonly summary: RunSummary;
+  readonly millis: number;
+}
+
+export type ToWorker =
+  | { type: 'load-grid'; id: string; name: string; bytes: ArrayBuffer; options: GridReadOptions & { assumeCrs?: string } }
+  | { type: 'load-vector'; id: string; name: string; text: string }
+  | { type: 'remove'; id: string }
+  | { type: 'make-demo' }
+  | {
+      type: 'run';
+      runId: number;
+      grids: Partial<Record<GridRole, string>>;
+      vectors: Partial<Record<VectorRole, string>>;
+      params: Record<string, unknown>;
+    }
+  | { type: 'export'; requestId: number; time: string; version: string };
+
+export type FromWorker =
+  | { type: 'loaded'; id: string; report: GridReadReport | null; features?: number; warnings?: string[] }
+  | { type: 'load-error'; id: string; message: string }
+  | { type: 'demo'; files: { name: string; bytes: ArrayBuffer }[] }
+  | { type: 'progress'; runId: number; stage: string; fraction: number }
+  | { type: 'result'; runId: number; result: DisplayResult }
+  | { type: 'run-error'; runId: number; message: string }
+  | { type: 'exported'; requestId: number; files: Record<string, ArrayBuffer> };

@@ -1,0 +1,119 @@
+/// <reference lib="webworker" />
+/**
+ * The pipeline worker: reads files (the same readers as the CLI), runs the one pipeline function and
+ * hands back display data with buffers transferred. It never touches the DOM.
+ */
+
+import { demoFiles } from '../../fixtures/demo-files.js';
+import { boundariesGeoJson, domainsGeoJson } from '../export/geojson.js';
+import { outputFiles, summary as runSummary } from '../export/outputs.js';
+import { readGeoJson } from '../io/geojson-read.js';
+import { readGeoTiff } from '../io/geotiff-read.js';
+import { readXyz } from '../io/xyz-read.js';
+import { runPipeline, type GridInput, type PipelineResult, type VectorInput } from '../pipeline.js';
+import type { FromWorker, ToWorker } from './messages.js';
+
+const grids = new Map<string, GridInput>();
+const vectors = new Map<string, VectorInput>();
+let last: PipelineResult | null = null;
+
+const post = (m: FromWorker, transfer: Transferable[] = []) => (self as unknown as Worker).postMessage(m, transfer);
+
+async function sha256(bytes: ArrayBuffer): Promise<string> {
+  const d = await crypto.subtle.digest('SHA-256', bytes);
+  return [...new Uint8Array(d)].map((b) => b.toString(16).padStart(2, '0')).join('');
+}
+
+self.onmessage = async (ev: MessageEvent<ToWorker>) => {
+  const m = ev.data;
+  try {
+    switch (m.type) {
+      case 'make-demo': {
+        const files = demoFiles();
+        const keep = ['seabed.tif', 'top-basement.tif', 'moho.tif', 'licence.geojson', 'seismic-lines.geojson', 'picks.geojson', 'isochrons.geojson'];
+        const out = keep.map((name) => ({ name, bytes: files[name].slice().buffer as ArrayBuffer }));
+        post({ type: 'demo', files: out }, out.map((f) => f.bytes));
+        break;
+      }
+      case 'load-grid': {
+        try {
+          const lower = m.name.toLowerCase();
+          const isTiff = /\.(tif|tiff|gtiff)$/.test(lower);
+          const r = isTiff ? await readGeoTiff(m.bytes, m.name, m.options) : readXyz(new TextDecoder().decode(m.bytes), m.name, m.options);
+          grids.set(m.id, { name: m.name, bytes: m.bytes.byteLength, sha256: await sha256(m.bytes), grid: r.grid, report: r.report });
+          post({ type: 'loaded', id: m.id, report: r.report });
+        } catch (err) {
+          post({ type: 'load-error', id: m.id, message: (err as Error).message });
+        }
+        break;
+      }
+      case 'load-vector': {
+        try {
+          const set = readGeoJson(m.text, m.name);
+          const bytes = new TextEncoder().encode(m.text);
+          vectors.set(m.id, { name: m.name, bytes: bytes.length, sha256: await sha256(bytes.buffer as ArrayBuffer), set });
+          post({ type: 'loaded', id: m.id, report: null, features: set.features.length, warnings: set.warnings });
+        } catch (err) {
+          post({ type: 'load-error', id: m.id, message: (err as Error).message });
+        }
+        break;
+      }
+      case 'remove':
+        grids.delete(m.id);
+        vectors.delete(m.id);
+        break;
+      case 'run': {
+        const t0 = performance.now();
+        try {
+          const g = (role: keyof typeof m.grids) => (m.grids[role] ? grids.get(m.grids[role]!) ?? null : null);
+          const v = (role: keyof typeof m.vectors) => (m.vectors[role] ? vectors.get(m.vectors[role]!) ?? null : null);
+          const basement = g('top-basement');
+          const moho = g('moho');
+          if (!basement || !moho) throw new Error('a top-basement grid and a Moho grid are needed (assign the roles in Data)');
+          const r = runPipeline(
+            { basement, moho, seabed: g('seabed'), licence: v('licence'), lines: v('lines'), picks: v('picks'), isochrons: v('isochrons'), crust: v('crust') },
+            { params: m.params, onProgress: (stage, fraction) => post({ type: 'progress', runId: m.runId, stage, fraction }) },
+          );
+          last = r;
+          const s = runSummary(r, { version: '', time: '', tool: 'app' }) as Record<string, unknown>;
+          const gridsOut: Record<string, Float32Array> = {};
+          for (const [name, arr] of Object.entries(r.derived.grids)) gridsOut[name] = arr.slice();
+          const domains = r.classified.domains.slice();
+          const result = {
+            geometry: { ...r.geometry, crs: { ...r.geometry.crs } },
+            grids: gridsOut,
+            domains,
+            boundaries: boundariesGeoJson(r, 'regional'),
+            domainOutlines: domainsGeoJson(r),
+            summary: {
+              areas: r.areas.total,
+              areasInLicence: r.areas.inLicence,
+              licenceName: r.licenceName,
+              lengths: s.boundary_lengths_km as Record<string, number>,
+              cotAreaKm2: s.cot_zone_area_km2 as number,
+              warnings: r.warnings,
+              missing: r.boundaries.missing,
+              oceanwardAzimuth: r.oceanward.azimuth,
+              suggestedTc0: Number.isFinite(r.derived.suggestedTc0) ? r.derived.suggestedTc0 : null,
+            },
+            millis: performance.now() - t0,
+          };
+          post({ type: 'result', runId: m.runId, result }, [...Object.values(gridsOut).map((a) => a.buffer), domains.buffer]);
+        } catch (err) {
+          post({ type: 'run-error', runId: m.runId, message: (err as Error).message });
+        }
+        break;
+      }
+      case 'export': {
+        if (!last) throw new Error('nothing computed yet');
+        const files = outputFiles(last, { version: m.version, time: m.time, tool: 'app' });
+        const out: Record<string, ArrayBuffer> = {};
+        for (const [k, v] of Object.entries(files)) out[k] = v.slice().buffer as ArrayBuffer;
+        post({ type: 'exported', requestId: m.requestId, files: out }, Object.values(out));
+        break;
+      }
+    }
+  } catch (err) {
+    console.error(err);
+  }
+};
