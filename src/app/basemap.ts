@@ -100,9 +100,8 @@ export function baseStyle(): StyleSpecification {
         layout: { 'line-cap': 'butt' as const, 'line-join': 'round' as const },
         paint: {
           'line-color': s.colour,
-          // placed by picks: full width and opacity; by the thickness proxy: thinner and fainter
-          'line-width': ['case', ['==', ['get', 'evidence'], 'picks'], s.width + 1, s.width - 0.5] as never,
-          'line-opacity': ['case', ['==', ['get', 'evidence'], 'picks'], 1, 0.75] as never,
+          // placed by picks: bold; by the thickness proxy: thinner
+          'line-width': ['case', ['==', ['get', 'evidence'], 'picks'], s.width + 1.5, s.width - 0.5] as never,
           ...(s.dash ? { 'line-dasharray': s.dash } : {}),
         },
       })),

@@ -338,7 +338,7 @@ function renderLayers(): void {
   );
 }
 
-function swatchLine(colour: string, dash: number[] | null, width: number, faint = false): SVGSVGElement {
+function swatchLine(colour: string, dash: number[] | null, width: number): SVGSVGElement {
   const ns = 'http://www.w3.org/2000/svg';
   const svg = document.createElementNS(ns, 'svg');
   svg.setAttribute('width', '44');
@@ -350,7 +350,6 @@ function swatchLine(colour: string, dash: number[] | null, width: number, faint 
   line.setAttribute('y2', '6');
   line.setAttribute('stroke', colour);
   line.setAttribute('stroke-width', String(width));
-  if (faint) line.setAttribute('stroke-opacity', '0.75');
   if (dash) line.setAttribute('stroke-dasharray', dash.map((d) => d * width).join(' '));
   svg.append(line);
   return svg;
@@ -381,8 +380,8 @@ function renderLegend(): void {
   for (const s of BOUNDARY_STYLES) legendBox.append(h('div', { class: 'swatch-row' }, swatchLine(s.colour, s.dash, s.width), s.label));
   legendBox.append(
     h('div', { class: 'swatch-row' }, h('span', { class: 'swatch', style: `background: ${COT_FILL}; opacity: 0.5` }), 'Continent–ocean transition zone'),
-    h('div', { class: 'swatch-row' }, swatchLine('#555', null, 4), 'placed by picks (bold)'),
-    h('div', { class: 'swatch-row' }, swatchLine('#555', null, 2, true), 'placed by the thickness proxy (thin)'),
+    h('div', { class: 'swatch-row' }, swatchLine('#555', null, 4.5), 'placed by picks (bold)'),
+    h('div', { class: 'swatch-row' }, swatchLine('#555', null, 2), 'placed by the thickness proxy (thin)'),
     h('div', { class: 'swatch-row' }, swatchLine('#111', [2.5, 1], 2), 'Licence'),
     h('div', { class: 'swatch-row' }, swatchLine('#3b3b3b', null, 1.6), 'Existing seismic line'),
     h('div', { class: 'swatch-row' }, h('span', { class: 'swatch dot' }), 'Interpreter pick'),
@@ -436,10 +435,23 @@ function paramInput(spec: ParamSpec): HTMLElement {
     h('div', { class: 'param-input' }, input, h('span', { class: 'unit', text: spec.unit })),
     h('div', { class: 'doc', text: `${spec.doc} Default ${def === null ? 'none' : def}${spec.unit && def !== null && !spec.choices ? ' ' + spec.unit : ''}. Source: ${spec.source}.` }),
     state.paramErrors[spec.key] ? h('div', { class: 'error', text: state.paramErrors[spec.key] }) : null,
+    spec.key === 'taperThreshold' && calibratedNote() ? h('div', { class: 'warning', id: 'calibration-note', text: calibratedNote()! }) : null,
   );
 }
 
+function calibratedNote(): string | null {
+  const c = state.result?.summary.calibrated;
+  if (!c || (!c.taper && !c.ocean && !c.onlap)) return null;
+  return (
+    `Picks in use (${c.taper} continental-limit, ${c.ocean} oceanic-limit, ${c.onlap} onlap): where a line has picks, its threshold is the crustal ` +
+    'thickness at the picks, interpolated along strike, and this value does not place it. Set the picks file to "not used" to apply this value.'
+  );
+}
+
+let lastNote: string | null = null;
+
 function renderParams(): void {
+  lastNote = calibratedNote();
   clear(paramsBox);
   const groups: Record<string, string> = { crust: 'Crust', densities: 'Densities', sediment: 'Sediment', subsidence: 'Subsidence (McKenzie 1978)', age: 'Oceanic age', picks: 'Pick tolerances', domains: 'Domains', lines: 'Lines' };
   for (const [g, title] of Object.entries(groups)) {
@@ -546,10 +558,10 @@ async function addFile(name: string, bytes: ArrayBuffer, role?: string, options:
     } else r = guessVectorRole(name);
   }
   const f: LoadedFile = { id: `f${nextId++}`, name, kind, role: r as LoadedFile['role'], bytes, options: { ...options }, report: null, error: null };
-  // one file per role: a new file takes the role over
-  if (f.role !== 'none') for (const o of state.files) if (o.role === f.role) o.role = 'none';
   state.files.push(f);
   await reload(f);
+  // one file per role: a file that loaded takes its role over; one that failed takes nothing
+  if (!f.error && f.role !== 'none') for (const o of state.files) if (o !== f && o.role === f.role) o.role = 'none';
   if (!quiet) {
     renderFiles();
     renderVectors();
@@ -687,6 +699,7 @@ async function run(fit: boolean): Promise<void> {
     renderRaster();
     renderVectors();
     renderAreas();
+    if (calibratedNote() !== lastNote) renderParams();
     setStatus(`Done in ${fmt(performance.now() - t0)} ms (pipeline ${fmt(result.millis)} ms). ${result.summary.warnings.length} warnings.`);
     map.once('idle', () => (window.__taperline.ready = true));
     map.triggerRepaint();

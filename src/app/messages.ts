@@ -21,6 +21,8 @@ export interface RunSummary {
   readonly missing: { kind: string; reason: string }[];
   readonly oceanwardAzimuth: number;
   readonly suggestedTc0: number | null;
+  /** Picks used to calibrate each line's threshold. */
+  readonly calibrated: { taper: number; ocean: number; onlap: number };
 }
 
 export interface DisplayResult {

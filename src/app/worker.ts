@@ -95,6 +95,7 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
               missing: r.boundaries.missing,
               oceanwardAzimuth: r.oceanward.azimuth,
               suggestedTc0: Number.isFinite(r.derived.suggestedTc0) ? r.derived.suggestedTc0 : null,
+              calibrated: { taper: r.calibration.taper?.points.length ?? 0, ocean: r.calibration.ocean?.points.length ?? 0, onlap: r.calibration.onlap?.points.length ?? 0 },
             },
             millis: performance.now() - t0,
           };

@@ -1,0 +1,204 @@
+// The app where users meet it: headless Chromium (Debian's) on the built app, served on loopback.
+import { readFileSync } from 'node:fs';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { WGS84 } from '../../src/crs/registry.js';
+import { crsFromEpsg } from '../../src/crs/registry.js';
+import { transformer } from '../../src/crs/transform.js';
+import { DOMAIN_STYLES } from '../../src/app/colour.js';
+import { countColour, openPage, pixelAt, pixels, startApp, waitReady, type App, type OpenedPage } from '../helpers/app.js';
+import { rfc7946Violations } from '../helpers/rfc7946.js';
+import { toolOrSkip } from '../helpers/tools.js';
+
+const haveChromium = toolOrSkip('chromium');
+const TAPER: [number, number, number] = [0xd5, 0x5e, 0x00]; // Okabe–Ito vermillion
+const VIRIDIS_TOP: [number, number, number] = [253, 231, 37];
+const MAP = { x: 320, y: 60, width: 760, height: 800 }; // the map area at 1400 × 900
+
+describe.skipIf(!haveChromium)('app in headless Chromium', () => {
+  let app: App;
+  let ctx: Awaited<ReturnType<App['browser']['newContext']>>;
+  let p: OpenedPage;
+
+  beforeAll(async () => {
+    app = await startApp();
+    ctx = await app.browser.newContext({ viewport: { width: 1400, height: 900 }, acceptDownloads: true });
+    p = await openPage(app, ctx);
+  }, 180_000);
+  afterAll(async () => {
+    await app?.close();
+  });
+
+  it('opens on the invented demo with the thickness raster, the boundaries, the licence and a legend', async () => {
+    const shot = await pixels(p.page, MAP);
+    expect(countColour(shot, TAPER, 18)).toBeGreaterThan(150); // the taper limit line
+    expect(countColour(shot, VIRIDIS_TOP, 20)).toBeGreaterThan(5000); // thick proximal crust in the raster
+    await expect(p.page.locator('#scenario').textContent()).resolves.toMatch(/invented/);
+    await expect(p.page.locator('#legend').textContent()).resolves.toMatch(/Crustal taper limit/);
+    await expect(p.page.locator('#caution').textContent()).resolves.toMatch(/qualified professionals/);
+    expect(p.errors).toEqual([]);
+  });
+
+  it('shows every grid value and the domain under the cursor', async () => {
+    await p.page.mouse.move(MAP.x + 300, MAP.y + 400);
+    const text = await p.page.locator('#inspect').textContent();
+    expect(text).toMatch(/lon, lat/);
+    expect(text).toMatch(/EPSG:32709/);
+    expect(text).toMatch(/crustal thickness/);
+    expect(text).toMatch(/domain/);
+  });
+
+  it('moves the taper limit landward when the taper threshold rises', async () => {
+    const meanLon = () =>
+      p.page.evaluate(() => {
+        const fc = window.__taperline.state.result!.boundaries as { features: { properties: { kind: string }; geometry: { coordinates: number[][] } }[] };
+        const xs = fc.features.filter((f) => f.properties.kind === 'crustal-taper-limit').flatMap((f) => f.geometry.coordinates.map((c) => c[0]));
+        return xs.reduce((a, b) => a + b, 0) / xs.length;
+      });
+    // With picks loaded the line goes through the picks whatever the threshold, and the panel says so.
+    await expect(p.page.locator('#calibration-note').textContent()).resolves.toMatch(/3 continental-limit/);
+    let runs = await p.page.evaluate(() => window.__taperline.runs);
+    await p.page.selectOption('.file[data-name="picks.geojson"] select.role', 'none');
+    await waitReady(p.page, runs + 1);
+    const before = await meanLon();
+    runs = await p.page.evaluate(() => window.__taperline.runs);
+    await p.page.fill('#p-taperThreshold', '6000');
+    await p.page.dispatchEvent('#p-taperThreshold', 'change');
+    await waitReady(p.page, runs + 1);
+    const after = await meanLon();
+    // the demo thins westward at ~8 km per 50 km: 6 km crust lies ~25 km (≈0.27°) landward of the 2 km line
+    expect(before - after).toBeGreaterThan(0.15);
+    const ms = await p.page.evaluate(() => window.__taperline.lastMillis);
+    console.log(`recompute after a parameter change on the demo: ${ms.toFixed(0)} ms`);
+  });
+
+  it('loads a GeoTIFF through the file input and shows what the reader detected', async () => {
+    await p.page.setInputFiles('#file-input', 'tests/fixtures/gdal/km_units.tif');
+    const card = p.page.locator('.file[data-name="km_units.tif"]');
+    await card.waitFor();
+    await expect(card.textContent()).resolves.toMatch(/37 × 23 cells of 500\.0 m, EPSG:32709/);
+    await expect(card.textContent()).resolves.toMatch(/units km \(unit tag "km"\)/);
+  });
+
+  it('shows a clear error for a corrupt file and keeps everything already loaded', async () => {
+    const runs = await p.page.evaluate(() => window.__taperline.runs);
+    const corrupt = Buffer.concat([Buffer.from([0x49, 0x49, 42, 0, 8, 0, 0, 0]), Buffer.alloc(64, 0xee)]);
+    await p.page.setInputFiles('#file-input', { name: 'corrupt_basement.tif', mimeType: 'image/tiff', buffer: corrupt });
+    const card = p.page.locator('.file[data-name="corrupt_basement.tif"]');
+    await card.locator('.file-error').waitFor();
+    await expect(card.locator('.file-error').textContent()).resolves.toMatch(/cannot be read as a GeoTIFF|not a/);
+    await p.page.waitForTimeout(800);
+    // the demo grids keep their roles, and the map keeps its layers
+    const roles = await p.page.evaluate(() => window.__taperline.state.files.filter((f) => !f.error).map((f) => `${f.name}:${f.role}`));
+    expect(roles).toContain('top-basement.tif:top-basement');
+    expect(await p.page.evaluate(() => window.__taperline.state.result !== null)).toBe(true);
+    expect(await p.page.evaluate(() => window.__taperline.runs)).toBeGreaterThanOrEqual(runs);
+    expect(countColour(await pixels(p.page, MAP), TAPER, 18)).toBeGreaterThan(150);
+  });
+
+  it('exports boundaries.geojson that follows RFC 7946', async () => {
+    const [download] = await Promise.all([p.page.waitForEvent('download'), p.page.click('#export-boundaries')]);
+    expect(download.suggestedFilename()).toBe('boundaries.geojson');
+    const fc = JSON.parse(readFileSync((await download.path())!, 'utf8'));
+    expect(fc.features.length).toBeGreaterThan(5);
+    expect(rfc7946Violations(fc)).toEqual([]);
+    expect(fc.features.some((f: { properties: { kind: string } }) => f.properties.kind === 'crustal-taper-limit')).toBe(true);
+  });
+
+  it('exports a map image with legend and scale', async () => {
+    const [download] = await Promise.all([p.page.waitForEvent('download'), p.page.click('#export-png')]);
+    const buf = readFileSync((await download.path())!);
+    expect(buf.subarray(1, 4).toString()).toBe('PNG');
+    expect(buf.length).toBeGreaterThan(50_000);
+  });
+
+  it('clicking a boundary shows its properties', async () => {
+    // click on a taper-limit vertex projected to the screen
+    const pt = await p.page.evaluate(() => {
+      const fc = window.__taperline.state.result!.boundaries as { features: { properties: { kind: string }; geometry: { coordinates: number[][] } }[] };
+      const f = fc.features.find((q) => q.properties.kind === 'crustal-taper-limit')!;
+      const c = f.geometry.coordinates[Math.floor(f.geometry.coordinates.length / 2)];
+      const s = window.__taperline.map.project([c[0], c[1]]);
+      const r = window.__taperline.map.getContainer().getBoundingClientRect();
+      return { x: r.left + s.x, y: r.top + s.y };
+    });
+    await p.page.mouse.click(pt.x, pt.y);
+    const popup = p.page.locator('#boundary-popup');
+    await popup.waitFor({ timeout: 5000 });
+    const text = await popup.textContent();
+    expect(text).toMatch(/crustal-taper-limit/);
+    expect(text).toMatch(/length km/);
+  });
+
+  it('restores the project after a reload', async () => {
+    await p.page.waitForTimeout(800); // autosave debounce
+    await p.page.reload();
+    await waitReady(p.page);
+    const st = await p.page.evaluate(() => ({
+      files: window.__taperline.state.files.map((f) => f.name).sort(),
+      taper: window.__taperline.state.params.taperThreshold,
+      picksRole: window.__taperline.state.files.find((f) => f.name === 'picks.geojson')?.role,
+    }));
+    expect(st.files).toEqual(expect.arrayContaining(['km_units.tif', 'moho.tif', 'seabed.tif', 'top-basement.tif', 'picks.geojson']));
+    expect(st.taper).toBe(6000);
+    expect(st.picksRole).toBe('none');
+    await expect(p.page.locator('#p-taperThreshold').inputValue()).resolves.toBe('6000');
+  });
+
+  it('a boundary drawn from cell edges lies on the raster colour edge within a pixel, zoomed to single cells', async () => {
+    // Domain raster and domain outline polygons (cell edges) at ~40 px per cell.
+    const cell = await p.page.evaluate(() => {
+      const r = window.__taperline.state.result!;
+      const g = r.geometry;
+      const j = Math.floor(g.ny * 0.8);
+      for (let i = 1; i < g.nx - 1; i++) {
+        const k = j * g.nx + i;
+        if (r.domains[k] === 3 && r.domains[k + 1] === 4 && r.domains[k - g.nx] === 3 && r.domains[k + g.nx] === 3) return { i, j, x0: g.x0, y0: g.y0, dx: g.dx, dy: g.dy };
+      }
+      return null;
+    });
+    expect(cell).not.toBeNull();
+    const c = cell!;
+    const [lon, lat] = transformer(crsFromEpsg(32709), WGS84).forward([c.x0 + (c.i + 0.5) * c.dx, c.y0 + c.j * c.dy]);
+    await p.page.selectOption('#layer-select', 'domains');
+    await p.page.fill('#opacity', '1');
+    await p.page.dispatchEvent('#opacity', 'input');
+    for (const id of ['boundaries', 'cot', 'licence', 'seismic', 'picks', 'graticule']) await p.page.setChecked(`#vis-${id}`, false);
+    await p.page.evaluate(([lo, la]) => window.__taperline.map.jumpTo({ center: [lo, la], zoom: 12.3 }), [lon, lat]);
+    await p.page.waitForFunction(() => window.__taperline.map.loaded() && !window.__taperline.map.isMoving());
+    await p.page.waitForTimeout(500);
+    const box = await p.page.evaluate(() => {
+      const r = window.__taperline.map.getContainer().getBoundingClientRect();
+      return { x: Math.round(r.left), y: Math.round(r.top), width: Math.round(r.width), height: Math.round(r.height) };
+    });
+    const cy = Math.round(box.height / 2);
+    const cx = Math.round(box.width / 2);
+    const hyper = DOMAIN_STYLES.find((d) => d.code === 3)!.colour;
+    const trans = DOMAIN_STYLES.find((d) => d.code === 4)!.colour;
+    const near = (a: number[], b: number[]) => Math.abs(a[0] - b[0]) + Math.abs(a[1] - b[1]) + Math.abs(a[2] - b[2]) < 30;
+    // raster only: where does hyperextended turn into transition along the centre row?
+    const raster = await pixels(p.page, box);
+    let edgeRaster = -1;
+    for (let x = cx - 60; x < cx + 60; x++) if (near(pixelAt(raster, x, cy), hyper) && near(pixelAt(raster, x + 1, cy), trans)) edgeRaster = x + 0.5;
+    expect(edgeRaster).toBeGreaterThan(0);
+    // outline only (raster hidden): where is the dark line?
+    await p.page.setChecked('#vis-outlines', true);
+    await p.page.fill('#opacity', '0');
+    await p.page.dispatchEvent('#opacity', 'input');
+    await p.page.waitForTimeout(500);
+    const outline = await pixels(p.page, box);
+    const dark: number[] = [];
+    for (let x = cx - 60; x < cx + 60; x++) if (pixelAt(outline, x, cy).every((v) => v < 90)) dark.push(x);
+    expect(dark.length).toBeGreaterThan(0);
+    const lineX = dark.reduce((a, b) => a + b, 0) / dark.length;
+    expect(Math.abs(lineX - edgeRaster)).toBeLessThanOrEqual(1);
+    // and both sit where the cell edge is on the map (the centre of the view)
+    expect(Math.abs(edgeRaster - cx)).toBeLessThanOrEqual(1.5);
+  });
+
+  it('never sends a request outside the page origin', () => {
+    const origin = new URL(app.url).origin;
+    const outside = p.requests.filter((u) => !u.startsWith(origin) && !u.startsWith('data:') && !u.startsWith('blob:'));
+    expect(p.requests.length).toBeGreaterThan(3);
+    expect(outside).toEqual([]);
+  });
+});
