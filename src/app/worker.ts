@@ -6,7 +6,7 @@
 
 import { demoFiles } from '../../fixtures/demo-files.js';
 import { boundariesGeoJson, domainsGeoJson } from '../export/geojson.js';
-import { outputFiles, summary as runSummary } from '../export/outputs.js';
+import { exportValues, outputFiles, summary as runSummary } from '../export/outputs.js';
 import { readGeoJson } from '../io/geojson-read.js';
 import { readGeoTiff } from '../io/geotiff-read.js';
 import { readXyz } from '../io/xyz-read.js';
@@ -77,7 +77,8 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
           last = r;
           const s = runSummary(r, { version: '', time: '', tool: 'app' }) as Record<string, unknown>;
           const gridsOut: Record<string, Float32Array> = {};
-          for (const [name, arr] of Object.entries(r.derived.grids)) gridsOut[name] = arr.slice();
+          // shown as exported: β, γ and β-from-subsidence masked over oceanic crust, ages outside it
+          for (const name of Object.keys(r.derived.grids)) gridsOut[name] = exportValues(r, name).slice();
           const domains = r.classified.domains.slice();
           const result = {
             geometry: { ...r.geometry, crs: { ...r.geometry.crs } },

@@ -1,0 +1,48 @@
+/**
+ * Screenshots of the main states of the real app, for the README: `npm run screenshots`.
+ * Builds the app, serves it on loopback, drives Debian's Chromium. Rerunnable; writes docs/screenshots/.
+ */
+import { mkdirSync } from 'node:fs';
+import { startApp, openPage, waitReady } from '../tests/helpers/app.js';
+
+const out = 'docs/screenshots';
+mkdirSync(out, { recursive: true });
+const app = await startApp();
+try {
+  const ctx = await app.browser.newContext({ viewport: { width: 1400, height: 860 }, acceptDownloads: true });
+  const { page } = await openPage(app, ctx);
+  await page.mouse.move(700, 420);
+  await page.screenshot({ path: `${out}/overview.png` });
+
+  let runs = await page.evaluate(() => window.__taperline.runs);
+  await page.selectOption('#layer-select', 'domains');
+  await page.waitForTimeout(400);
+  const pt = await page.evaluate(() => {
+    const fc = window.__taperline.state.result!.boundaries as { features: { properties: { kind: string; evidence: string }; geometry: { coordinates: number[][] } }[] };
+    const f = fc.features.find((q) => q.properties.kind === 'crustal-taper-limit' && q.properties.evidence === 'picks')!;
+    const c = f.geometry.coordinates[Math.floor(f.geometry.coordinates.length / 2)];
+    const s = window.__taperline.map.project([c[0], c[1]]);
+    const r = window.__taperline.map.getContainer().getBoundingClientRect();
+    return { x: r.left + s.x, y: r.top + s.y };
+  });
+  await page.mouse.click(pt.x, pt.y);
+  await page.waitForTimeout(400);
+  await page.screenshot({ path: `${out}/domains-and-boundary.png` });
+
+  await page.keyboard.press('Escape');
+  await page.evaluate(() => document.querySelectorAll('.maplibregl-popup').forEach((e) => e.remove()));
+  await page.setInputFiles('#file-input', 'tests/fixtures/gdal/km_units.tif');
+  await page.setInputFiles('#file-input', { name: 'damaged_moho.tif', mimeType: 'image/tiff', buffer: Buffer.concat([Buffer.from([0x49, 0x49, 42, 0, 8, 0, 0, 0]), Buffer.alloc(64, 0xee)]) });
+  await page.locator('.file[data-name="damaged_moho.tif"] .file-error').waitFor();
+  await page.evaluate(() => document.querySelector('.file[data-name="km_units.tif"]')?.scrollIntoView());
+  await page.screenshot({ path: `${out}/loading-files.png`, clip: { x: 0, y: 0, width: 700, height: 860 } });
+
+  runs = await page.evaluate(() => window.__taperline.runs);
+  await page.selectOption('#layer-select', 'beta-subsidence');
+  await page.evaluate(() => document.querySelector('#p-tc0')?.scrollIntoView());
+  await waitReady(page, runs);
+  await page.screenshot({ path: `${out}/beta-from-subsidence.png` });
+  console.log(`screenshots written to ${out}/`);
+} finally {
+  await app.close();
+}
