@@ -144,6 +144,21 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     await expect(p.page.locator('#p-taperThreshold').inputValue()).resolves.toBe('6000');
   });
 
+  it('a project saved with its data opens in a fresh browser and reproduces the results', async () => {
+    const [download] = await Promise.all([p.page.waitForEvent('download'), p.page.click('#btn-save-bundle')]);
+    const path = (await download.path())!;
+    const before = await p.page.evaluate(() => JSON.stringify(window.__taperline.state.result!.summary.areas));
+    const fresh = await app.browser.newContext({ viewport: { width: 1400, height: 900 } });
+    const q = await openPage(app, fresh);
+    const runs = await q.page.evaluate(() => window.__taperline.runs);
+    await q.page.setInputFiles('#project-input', path);
+    await waitReady(q.page, runs + 1);
+    const after = await q.page.evaluate(() => JSON.stringify(window.__taperline.state.result!.summary.areas));
+    expect(after).toBe(before);
+    expect(await q.page.evaluate(() => window.__taperline.state.params.taperThreshold)).toBe(6000);
+    await fresh.close();
+  });
+
   it('a boundary drawn from cell edges lies on the raster colour edge within a pixel, zoomed to single cells', async () => {
     // Domain raster and domain outline polygons (cell edges) at ~40 px per cell.
     const cell = await p.page.evaluate(() => {

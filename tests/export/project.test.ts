@@ -1,0 +1,63 @@
+// The project file: saving and reopening reproduces identical outputs, timestamps aside.
+import { createHash } from 'node:crypto';
+import { describe, expect, it } from 'vitest';
+import { DEMO_PARAMS } from '../../fixtures/demo-margin.js';
+import { outputFiles } from '../../src/export/outputs.js';
+import { readGeoJson } from '../../src/io/geojson-read.js';
+import { readGeoTiff } from '../../src/io/geotiff-read.js';
+import { fromBase64, parseProject, PROJECT_FORMAT, toBase64 } from '../../src/io/project.js';
+import { resolveParams } from '../../src/params.js';
+import { runPipeline, type PipelineInputs } from '../../src/pipeline.js';
+import { demoBytes } from '../helpers/demo-run.js';
+
+const sha = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
+const ROLES: Record<string, string> = { 'top-basement.tif': 'basement', 'moho.tif': 'moho', 'seabed.tif': 'seabed', 'licence.geojson': 'licence', 'picks.geojson': 'picks', 'isochrons.geojson': 'isochrons', 'seismic-lines.geojson': 'lines' };
+
+async function inputsFrom(files: Record<string, Uint8Array>): Promise<PipelineInputs> {
+  const out: Record<string, unknown> = {};
+  for (const [name, bytes] of Object.entries(files)) {
+    const role = ROLES[name];
+    if (name.endsWith('.tif')) out[role] = { name, bytes: bytes.length, sha256: sha(bytes), ...(await readGeoTiff(bytes, name)) };
+    else out[role] = { name, bytes: bytes.length, sha256: sha(bytes), set: readGeoJson(new TextDecoder().decode(bytes), name) };
+  }
+  return out as unknown as PipelineInputs;
+}
+
+describe('project file', () => {
+  it('base64 round trips any bytes (RFC 4648 alphabet)', () => {
+    for (const n of [0, 1, 2, 3, 4, 5, 1000]) {
+      const b = Uint8Array.from({ length: n }, (_, k) => (k * 37 + 11) & 255);
+      expect(Array.from(fromBase64(toBase64(b)))).toEqual(Array.from(b));
+    }
+    expect(toBase64(new TextEncoder().encode('Man'))).toBe('TWFu'); // RFC 4648 §9 example
+    expect(toBase64(new TextEncoder().encode('foob'))).toBe('Zm9vYg=='); // RFC 4648 §10 test vector
+  });
+
+  it('a saved project with bundled inputs reopens to byte-identical outputs (summary time aside)', async () => {
+    const all = demoBytes();
+    const files = Object.fromEntries(Object.keys(ROLES).map((n) => [n, all[n]]));
+    const params = resolveParams({ ...DEMO_PARAMS, taperThreshold: 2500 });
+    const first = outputFiles(runPipeline(await inputsFrom(files), { params: params as never }), { version: 't', time: 'T1', tool: 'app' });
+    const text = JSON.stringify({
+      format: PROJECT_FORMAT, version: 1, saved: 'x', tool: 't', params, view: null,
+      inputs: Object.entries(files).map(([name, b]) => ({ name, kind: name.endsWith('.tif') ? 'grid' : 'vector', role: ROLES[name], bytes: b.length, sha256: sha(b), options: {}, data: toBase64(b) })),
+    });
+    const p = parseProject(text, 'project.taperline.json');
+    const reopened = Object.fromEntries(p.inputs.map((i) => [i.name, fromBase64(i.data!)]));
+    for (const i of p.inputs) expect(sha(reopened[i.name])).toBe(i.sha256);
+    const second = outputFiles(runPipeline(await inputsFrom(reopened), { params: p.params }), { version: 't', time: 'T2', tool: 'app' });
+    expect(Object.keys(second).sort()).toEqual(Object.keys(first).sort());
+    for (const name of Object.keys(first)) {
+      if (name === 'summary.json') {
+        const a = JSON.parse(new TextDecoder().decode(first[name]));
+        const b = JSON.parse(new TextDecoder().decode(second[name]));
+        expect({ ...b, time: a.time }).toEqual(a);
+      } else expect(sha(second[name]), name).toBe(sha(first[name]));
+    }
+  });
+
+  it('refuses what is not a project, naming the file', () => {
+    expect(() => parseProject('{"hello": 1}', 'notes.json')).toThrow(/notes\.json: is not a Taperline project file/);
+    expect(() => parseProject('nope', 'x.json')).toThrow(/x\.json: is not a project file/);
+  });
+});
