@@ -72,6 +72,8 @@ export interface PipelineResult {
   /** Vector evidence in the analysis CRS, for display and sections. */
   readonly evidence: { picks: Pick[]; lines: { name: string; coords: Ring[] }[]; isochrons: Isochron[]; licence: Ring[] | null };
   readonly inputs: PipelineInputs;
+  /** The depth grids on the analysis grid (resampled where needed), metres positive down. */
+  readonly analysis: { readonly seabed: Float32Array | null; readonly basement: Float32Array; readonly moho: Float32Array };
   readonly warnings: string[];
 }
 
@@ -250,6 +252,7 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     licenceName: licenceIn ? String(licenceIn.set.features[0]?.properties.name ?? licenceIn.name) : null,
     evidence: { picks, lines, isochrons, licence },
     inputs,
+    analysis: { seabed, basement: inputs.basement.grid.values, moho },
     warnings,
   };
 }

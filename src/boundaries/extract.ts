@@ -58,6 +58,9 @@ export interface BoundaryResult {
   readonly inLicence: BoundaryPiece[] | null;
   readonly missing: { kind: BoundaryKind; reason: string }[];
   readonly notes: string[];
+  /** Whole lines in map coordinates for survey planning: the taper limit and the landward limit of
+   * oceanic crust (which, with onlap picks, is not the exported onlap line). */
+  readonly support: { taper: Ring[]; oceanic: Ring[]; necking: Ring[]; coupling: Ring[] };
 }
 
 const MAX_PIECE = 10_000;
@@ -89,6 +92,12 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
     return out;
   };
   const grid = (v: Float32Array) => ({ values: v, nx, ny });
+  const traced = new Map<Float32Array, Ring[]>();
+  const lineOf = (field: Float32Array) => {
+    let l = traced.get(field);
+    if (!l) traced.set(field, (l = toMap(traceLevel(grid(field), 0))));
+    return l;
+  };
 
   const controlPoints = inp.picks.map((q) => [q.x, q.y] as [number, number]);
   const missing: BoundaryResult['missing'] = [];
@@ -133,7 +142,7 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   const oldestIsochron = inp.isochrons.reduce<Isochron | null>((a, b) => (!a || b.age > a.age ? b : a), null);
 
   for (const spec of lineSpecs) {
-    const lines = toMap(traceLevel(grid(spec.field), 0));
+    const lines = lineOf(spec.field);
     if (lines.length === 0) {
       missing.push({ kind: spec.kind, reason: `no ${spec.kind} in the data: the rule (${spec.rule}) is never met between the two sides` });
       continue;
@@ -208,7 +217,8 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
     }
     notes.push('inside the licence, lines are clipped exactly; the COT zone polygon is cut at the cell centres inside the licence (within one cell of its edge)');
   }
-  return { pieces, inLicence, missing, notes };
+  const support = { taper: lineOf(gTaper), oceanic: lineOf(gOcean), necking: lineOf(gNeck), coupling: lineOf(gCoupling) };
+  return { pieces, inLicence, missing, notes, support };
 }
 
 function round3(v: number): number {

@@ -11,6 +11,9 @@ import { runPipeline, type PipelineInputs } from '../pipeline.js';
 import type { GridReadOptions } from '../io/geotiff-read.js';
 import type { LengthUnit, Sign } from '../io/detect.js';
 import { loadGrid, loadVectors } from './load.js';
+import { DEFAULT_PLAN, PLAN_SPECS } from '../survey/params.js';
+import { planFromResult } from '../survey/run.js';
+import { surveyCsv, surveyGeoJson } from '../export/survey.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const pkg = JSON.parse(readFileSync(join(here, '../../package.json'), 'utf8')) as { version: string };
@@ -21,10 +24,17 @@ const paramLines = PARAM_SPECS.map((s) => {
   return `    ${s.key.padEnd(22)} ${s.doc} (default ${def}${s.choices ? `; one of ${s.choices.join(', ')}` : ''})`;
 }).join('\n');
 
+const planLines = PLAN_SPECS.map((s) => {
+  const d = DEFAULT_PLAN[s.key];
+  return `    ${s.key.padEnd(22)} ${s.doc} (default ${d === null ? 'none' : `${d}${s.unit ? ' ' + s.unit : ''}`})`;
+}).join('\n');
+
 export const HELP = `taperline ${pkg.version} — map-view synthesis of rifted-margin depth grids
 
 Usage:
   taperline synth --top-basement F --moho F [--seabed F] [options]
+  taperline plan --top-basement F --moho F [--seabed F] [--existing F] [--spacing KM]
+                 [--overhang-landward KM] [--overhang-oceanward KM] [synth options]
   taperline demo [--out DIR]
   taperline --help | --version
 
@@ -48,6 +58,17 @@ boundaries from depth grids (GeoTIFF or XYZ text; metres or km, depth or elevati
                              otherwise the analysis grid's CRS is assumed with a warning)
   --ROLE-depth               accept a grid whose name or tags look like two-way time
 
+plan: propose 2D seismic lines across the continent–ocean transition (a planning aid: marine
+surveys need permits, environmental mitigation and qualified operators). Same inputs as synth, plus
+  --existing F         existing seismic lines (GeoJSON); proposals too close to them are dropped
+  --spacing KM         dip-line spacing (default 20)
+  --overhang-landward KM / --overhang-oceanward KM   extension beyond the taper limit / the
+                       landward limit of oceanic crust (default 20 each)
+  other planning values come from the params file (keys below, "plan" section).
+Writes DIR/survey-lines.geojson (ranked lines with lengths, crossings, record lengths, the programme
+totals, coverage gaps and dropped proposals) and DIR/survey-lines.csv (start and end points in WGS 84
+and in the analysis CRS).
+
 demo: run synth on the built-in invented demo scenario (fixtures/demo, generated if missing).
 
 Writes DIR/boundaries.geojson (inside the licence when one is given; then also
@@ -58,6 +79,9 @@ succeeds. Exit status: 0 success; 2 bad input (message names the file and the pr
 
 Params file keys (JSON object; every key optional):
 ${paramLines}
+
+Planning keys (plan only; same params file):
+${planLines}
 
 Results are interpretations of the input grids and parameters; they do not replace the judgement of
 qualified professionals, nor the local rules that govern licences, surveys and drilling.
@@ -83,6 +107,7 @@ function parseArgs(argv: string[]): { command: string; flags: Map<string, string
 }
 
 const GRID_ROLES = ['seabed', 'top-basement', 'moho'] as const;
+const PLAN_FLAGS = ['existing', 'spacing', 'overhang-landward', 'overhang-oceanward'];
 const KNOWN = new Set([
   'top-basement', 'moho', 'seabed', 'licence', 'lines', 'picks', 'isochrons', 'crust', 'params', 'out',
   ...GRID_ROLES.flatMap((r) => [`${r}-units`, `${r}-sign`, `${r}-nodata`, `${r}-crs`, `${r}-depth`]),
@@ -117,8 +142,8 @@ function gridOptions(flags: Map<string, string | true>, role: (typeof GRID_ROLES
   return o;
 }
 
-async function synth(flags: Map<string, string | true>, out: string): Promise<void> {
-  for (const k of flags.keys()) if (!KNOWN.has(k)) throw new UsageError(`unknown option --${k}`);
+async function synth(flags: Map<string, string | true>, out: string, mode: 'synth' | 'plan' = 'synth'): Promise<void> {
+  for (const k of flags.keys()) if (!KNOWN.has(k) && !(mode === 'plan' && PLAN_FLAGS.includes(k))) throw new UsageError(`unknown option --${k}`);
   const basementPath = str(flags, 'top-basement');
   const mohoPath = str(flags, 'moho');
   if (!basementPath || !mohoPath) throw new UsageError('synth needs --top-basement F and --moho F');
@@ -153,19 +178,38 @@ async function synth(flags: Map<string, string | true>, out: string): Promise<vo
     moho,
     seabed,
     licence: vec('licence'),
-    lines: vec('lines'),
+    lines: vec('lines') ?? vec('existing'),
     picks: vec('picks'),
     isochrons: vec('isochrons'),
     crust: vec('crust'),
   };
+  const planKeys = new Set(PLAN_SPECS.map((s) => s.key as string));
+  const pipelineParams = Object.fromEntries(Object.entries(params).filter(([k]) => !planKeys.has(k)));
+  const planParams: Record<string, unknown> = Object.fromEntries(Object.entries(params).filter(([k]) => planKeys.has(k)));
+  for (const [flag, key] of [['spacing', 'spacingKm'], ['overhang-landward', 'overhangLandwardKm'], ['overhang-oceanward', 'overhangOceanwardKm']]) {
+    const v = str(flags, flag);
+    if (v !== undefined) {
+      if (!Number.isFinite(Number(v))) throw new UsageError(`--${flag} must be a number of km`);
+      planParams[key] = Number(v);
+    }
+  }
   let result;
+  let files: Record<string, Uint8Array>;
   try {
-    result = runPipeline(inputs, { params });
+    result = runPipeline(inputs, { params: pipelineParams });
+    if (mode === 'plan') {
+      const sp = planFromResult(result, planParams);
+      const enc = new TextEncoder();
+      files = {
+        'survey-lines.geojson': enc.encode(JSON.stringify(surveyGeoJson(sp, result.geometry.crs), null, 1) + '\n'),
+        'survey-lines.csv': enc.encode(surveyCsv(sp, result.geometry.crs)),
+      };
+      for (const w of sp.plan.warnings) process.stderr.write(`warning: ${w}\n`);
+    } else files = outputFiles(result, { version: pkg.version, time: new Date().toISOString(), tool: 'cli' });
   } catch (err) {
-    if (err instanceof ParamError) throw new InputError(paramsPath ?? 'parameters', err.message);
+    if (err instanceof ParamError || (err instanceof Error && /^plan parameter/.test(err.message))) throw new InputError(paramsPath ?? 'parameters', err.message);
     throw err;
   }
-  const files = outputFiles(result, { version: pkg.version, time: new Date().toISOString(), tool: 'cli' });
   writeAtomically(out, files);
   for (const w of result.warnings) process.stderr.write(`warning: ${w}\n`);
   process.stdout.write(`wrote ${Object.keys(files).length} files to ${out}\n`);
@@ -229,6 +273,7 @@ export async function main(argv: string[]): Promise<number> {
     const { command, flags } = parseArgs(argv);
     const out = resolve(str(flags, 'out') ?? 'taperline-out');
     if (command === 'synth') await synth(flags, out);
+    else if (command === 'plan') await synth(flags, out, 'plan');
     else if (command === 'demo') await demo(flags, out);
     else throw new UsageError(`unknown command "${command}"`);
     return 0;

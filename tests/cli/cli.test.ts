@@ -85,3 +85,23 @@ describe('taperline CLI', () => {
     expect(readdirSync(f('minimal')).filter((n) => n.startsWith('.'))).toEqual([]);
   });
 });
+
+describe('taperline plan', () => {
+  it('writes ranked proposals as GeoJSON and CSV with both CRSs stated', async () => {
+    const files = demoFiles();
+    for (const name of ['seismic-lines.geojson', 'picks.geojson']) writeFileSync(f(name), files[name]);
+    const out = f('plan');
+    const r = taperline(['plan', '--top-basement', f('top-basement.tif'), '--moho', f('moho.tif'), '--seabed', f('seabed.tif'), '--existing', f('seismic-lines.geojson'), '--picks', f('picks.geojson'), '--spacing', '25', '--overhang-landward', '15', '--overhang-oceanward', '10', '--out', out]);
+    expect(r.status).toBe(0);
+    expect(readdirSync(out).sort()).toEqual(['survey-lines.csv', 'survey-lines.geojson']);
+    const csv = readFileSync(join(out, 'survey-lines.csv'), 'utf8').split('\n');
+    expect(csv[0]).toMatch(/WGS 84.*EPSG:32709/);
+    expect(csv[1]).toBe('id,kind,rank,start_lon,start_lat,end_lon,end_lat,start_x,start_y,end_x,end_y,length_km,cumulative_km,record_length_s,crossings');
+    const fc = JSON.parse(readFileSync(join(out, 'survey-lines.geojson'), 'utf8'));
+    const { rfc7946Violations } = await import('../helpers/rfc7946.js');
+    expect(rfc7946Violations(fc)).toEqual([]);
+    expect(fc.programme.parameters.spacingKm).toBe(25);
+    expect(fc.features[0].properties.rank).toBe(1);
+    expect(fc.features[0].properties.record_length_s).toBeGreaterThan(8);
+  });
+});

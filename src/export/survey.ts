@@ -1,0 +1,60 @@
+/** Planned lines as RFC 7946 GeoJSON and as CSV of end points (WGS 84 and the analysis CRS). */
+
+import { WGS84, type Crs } from '../crs/registry.js';
+import { transformer } from '../crs/transform.js';
+import type { SurveyPlan } from '../survey/run.js';
+import { splitLine, toLonLat } from './rfc7946.js';
+
+const r3 = (v: number) => Math.round(v * 1000) / 1000;
+
+export function surveyGeoJson(sp: SurveyPlan, crs: Crs): Record<string, unknown> {
+  const features = sp.plan.lines.map((l) => {
+    const parts = splitLine(toLonLat(l.coords, crs, 500));
+    const f = sp.figures.get(l.id);
+    return {
+      type: 'Feature',
+      properties: {
+        id: l.id,
+        kind: l.kind,
+        segment: l.segment + 1,
+        rank: l.rank,
+        length_km: r3(l.lengthKm),
+        cumulative_km: r3(l.cumulativeKm),
+        zone_width_km: l.zoneWidthKm === null ? null : r3(l.zoneWidthKm),
+        control_distance_km: l.controlDistanceKm === null ? null : r3(l.controlDistanceKm),
+        score: l.score === null ? null : r3(l.score),
+        note: l.note ?? null,
+        max_twt_to_moho_s: f ? r3(f.maxTwtS) : null,
+        record_length_s: f ? f.recordLengthS : null,
+        crossings: f ? f.crossings : [],
+        status: 'proposed (planning aid; permits, environmental mitigation and qualified operators required)',
+      },
+      geometry: parts.length === 1 ? { type: 'LineString', coordinates: parts[0] } : { type: 'MultiLineString', coordinates: parts },
+    };
+  });
+  return {
+    type: 'FeatureCollection',
+    name: 'proposed seismic lines',
+    programme: { ...sp.programme, parameters: sp.params, dropped: sp.plan.dropped, gaps: sp.plan.gaps.map((g) => ({ ...g, at: undefined })) },
+    features,
+  };
+}
+
+export function surveyCsv(sp: SurveyPlan, crs: Crs): string {
+  const t = transformer(crs, WGS84);
+  const crsName = crs.id === 'PROJ4' ? crs.proj4 : `${crs.id} ${crs.name}`;
+  const rows = [
+    `# proposed seismic lines (planning aid). Start/end in WGS 84 (degrees) and in the analysis CRS: ${crsName} (metres). Lengths geodesic.`,
+    'id,kind,rank,start_lon,start_lat,end_lon,end_lat,start_x,start_y,end_x,end_y,length_km,cumulative_km,record_length_s,crossings',
+  ];
+  for (const l of sp.plan.lines) {
+    const a = l.coords[0];
+    const b = l.coords[l.coords.length - 1];
+    const [alon, alat] = t.forward(a);
+    const [blon, blat] = t.forward(b);
+    const f = sp.figures.get(l.id);
+    const cross = f ? f.crossings.map((c) => `${c.kind}@${c.chainageKm.toFixed(2)}km`).join(' ') : '';
+    rows.push([l.id, l.kind, l.rank, alon.toFixed(7), alat.toFixed(7), blon.toFixed(7), blat.toFixed(7), a[0].toFixed(2), a[1].toFixed(2), b[0].toFixed(2), b[1].toFixed(2), l.lengthKm.toFixed(3), l.cumulativeKm.toFixed(3), f ? f.recordLengthS : '', `"${cross}"`].join(','));
+  }
+  return rows.join('\n') + '\n';
+}
