@@ -42,6 +42,16 @@ try {
   await page.evaluate(() => document.querySelector('#p-tc0')?.scrollIntoView());
   await waitReady(page, runs);
   await page.screenshot({ path: `${out}/beta-from-subsidence.png` });
+
+  // planning and a section at true scale, on a fresh page of the demo
+  const fresh = await app.browser.newContext({ viewport: { width: 1400, height: 860 } });
+  const q = await openPage(app, fresh);
+  await q.page.click('#btn-plan');
+  await q.page.waitForFunction(() => (window.__taperline.planned ?? 0) >= 1, null, { timeout: 60_000 });
+  await q.page.locator('#proposal-list button').first().click();
+  await q.page.locator('#section-panel:not([hidden]) svg').waitFor();
+  await q.page.waitForTimeout(500);
+  await q.page.screenshot({ path: `${out}/survey-plan-and-section.png` });
   console.log(`screenshots written to ${out}/`);
 } finally {
   await app.close();

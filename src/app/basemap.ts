@@ -67,6 +67,10 @@ export function baseStyle(): StyleSpecification {
       picks: src(),
       boundaries: src(),
       outlines: src(),
+      proposals: src(),
+      midline: src(),
+      gaps: src(),
+      drawn: src(),
     },
     layers: [
       { id: 'sea', type: 'background', paint: { 'background-color': COLOURS.sea } },
@@ -105,6 +109,19 @@ export function baseStyle(): StyleSpecification {
           ...(s.dash ? { 'line-dasharray': s.dash } : {}),
         },
       })),
+      { id: 'gaps', type: 'line', source: 'gaps', paint: { 'line-color': '#F0E442', 'line-width': 10, 'line-opacity': 0.75 } },
+      { id: 'midline', type: 'line', source: 'midline', paint: { 'line-color': '#404040', 'line-width': 1.2, 'line-dasharray': [2, 2] } },
+      {
+        id: 'proposals',
+        type: 'line',
+        source: 'proposals',
+        paint: {
+          'line-color': ['case', ['==', ['get', 'kind'], 'dip'], '#009E73', '#56B4E9'] as never,
+          'line-width': ['case', ['==', ['get', 'kind'], 'dip'], 3, 2.5] as never,
+        },
+      },
+      { id: 'drawn', type: 'line', source: 'drawn', paint: { 'line-color': '#000000', 'line-width': 2.5 } },
+      { id: 'drawn-points', type: 'circle', source: 'drawn', paint: { 'circle-radius': 3.5, 'circle-color': '#000' } },
       {
         id: 'picks',
         type: 'circle',

@@ -5,7 +5,7 @@
 
 import type { GridReadOptions } from '../io/geotiff-read.js';
 import type { GridReadReport } from '../io/report.js';
-import type { DisplayResult, FromWorker, GridRole, ToWorker, VectorRole } from './messages.js';
+import type { DisplayResult, FromWorker, GridRole, PlanData, SectionData, ToWorker, VectorRole } from './messages.js';
 
 export interface LoadedFile {
   readonly id: string;
@@ -68,6 +68,12 @@ export class Engine {
       case 'exported':
         settle(`export:${m.requestId}`, true, m.files);
         break;
+      case 'section-result':
+        settle(`section:${m.requestId}`, m.section !== null, m.section ?? m.error);
+        break;
+      case 'plan-result':
+        settle(`plan:${m.requestId}`, m.plan !== null, m.plan ?? m.error);
+        break;
     }
   }
 
@@ -109,6 +115,16 @@ export class Engine {
   exportAll(version: string): Promise<Record<string, ArrayBuffer>> {
     const requestId = ++this.requestId;
     return this.call(`export:${requestId}`, { type: 'export', requestId, time: new Date().toISOString(), version });
+  }
+
+  section(lonlat: [number, number][], title: string): Promise<SectionData> {
+    const requestId = ++this.requestId;
+    return this.call(`section:${requestId}`, { type: 'section', requestId, lonlat, title });
+  }
+
+  plan(params: Record<string, unknown>): Promise<PlanData> {
+    const requestId = ++this.requestId;
+    return this.call(`plan:${requestId}`, { type: 'plan', requestId, params });
   }
 
   /** Stop whatever runs: terminate the worker, start a new one and reload every file into it. */

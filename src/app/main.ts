@@ -21,6 +21,9 @@ import type { DisplayResult, GridRole, VectorRole } from './messages.js';
 import { clearAll, loadProject, saveProject, type StoredProject } from './store.js';
 import { tilesFor, type Tile } from './tiles.js';
 import { renderMapImage } from './map-image.js';
+import { renderSection, svgToPng } from './section-view.js';
+import { DEFAULT_PLAN, PLAN_SPECS } from '../survey/params.js';
+import type { PlanData, SectionData } from './messages.js';
 
 const VERSION = '0.1.0';
 const DEMO_NAME = 'Veyra margin, VM-3 Tessel licence';
@@ -35,6 +38,7 @@ declare global {
       error: string | null;
       state: typeof state;
       map: maplibregl.Map;
+      planned?: number;
     };
   }
 }
@@ -71,6 +75,22 @@ const areasBox = h('div', { id: 'areas' });
 const warningsBox = h('div', { id: 'warnings', class: 'warnings' });
 const fileInput = h('input', { type: 'file', id: 'file-input', multiple: true, accept: '.tif,.tiff,.xyz,.txt,.csv,.dat,.geojson,.json' }) as HTMLInputElement;
 const projectInput = h('input', { type: 'file', id: 'project-input', accept: '.json', hidden: true }) as HTMLInputElement;
+const planBox = h('div', { id: 'plan' });
+const sectionBody = h('div', { class: 'section-body', id: 'section-body' });
+const veSelect = h('select', { id: 'section-ve', onchange: () => drawSection() }, ...[1, 2, 5, 10].map((v) => h('option', { value: v, text: v === 1 ? 'VE 1 (true scale)' : `VE ${v}` }))) as HTMLSelectElement;
+const sectionPanel = h(
+  'div',
+  { id: 'section-panel', class: 'section-panel', hidden: true },
+  h('div', { class: 'section-bar' },
+    h('strong', { id: 'section-title', text: 'Section' }),
+    h('span', { class: 'spacer' }),
+    veSelect,
+    h('button', { class: 'small', id: 'section-csv', onclick: () => currentSection && download('section.csv', currentSection.csv, 'text/csv') }, 'CSV'),
+    h('button', { class: 'small', id: 'section-png', onclick: () => void sectionImage() }, 'Image'),
+    h('button', { class: 'small', id: 'section-close', onclick: () => ((sectionPanel.hidden = true), setSource('drawn', { type: 'FeatureCollection', features: [] })) }, 'Close'),
+  ),
+  sectionBody,
+);
 const aboutDialog = h(
   'dialog',
   { id: 'about' },
@@ -141,7 +161,7 @@ app.append(
       h('section', {}, h('h2', { text: 'Parameters' }), paramsBox),
       h('section', {}, h('h2', { text: 'Export' }), exportPanel()),
     ),
-    h('div', { id: 'map' }),
+    h('div', { id: 'centre' }, h('div', { id: 'map' }), sectionPanel),
     h(
       'aside',
       { class: 'right' },
@@ -149,6 +169,7 @@ app.append(
       h('section', {}, h('h2', { text: 'Legend' }), legendBox),
       h('section', {}, h('h2', { text: 'At cursor' }), inspectBox),
       h('section', {}, h('h2', { text: 'Areas and lengths' }), areasBox),
+      h('section', {}, h('h2', { text: 'Survey plan and sections' }), planBox),
       h('section', {}, h('h2', { text: 'Warnings' }), warningsBox),
     ),
   ),
@@ -306,13 +327,26 @@ function inspect(lon: number, lat: number): void {
 
 const clickable = ['cot-zone', ...BOUNDARY_STYLES.map((s) => `b-${s.kind}`)];
 map.on('click', (e: MapMouseEvent) => {
+  if (drawing) {
+    drawing.push([e.lngLat.lng, e.lngLat.lat]);
+    showDrawn();
+    return;
+  }
+  const lineHits = map.queryRenderedFeatures(e.point, { layers: ['proposals', 'seismic'].filter((id) => map.getLayer(id)) });
+  if (lineHits.length) {
+    const f = lineHits[0];
+    const coords = (f.geometry as GeoJSON.LineString).coordinates as [number, number][];
+    const name = String(f.properties?.id ?? f.properties?.name ?? 'line');
+    void openSection(coords, f.layer.id === 'proposals' ? `Proposed line ${name}` : `Existing line ${name}`);
+    return;
+  }
   const hits = map.queryRenderedFeatures(e.point, { layers: clickable.filter((id) => map.getLayer(id)) });
   if (!hits.length) return;
   const p = hits[0].properties as Record<string, unknown>;
   const table = h('table', { class: 'props' }, ...Object.entries(p).map(([k, v]) => h('tr', {}, h('th', { text: k.replace(/_/g, ' ') }), h('td', { text: typeof v === 'object' ? JSON.stringify(v) : String(v) }))));
   new maplibregl.Popup({ maxWidth: '380px' }).setLngLat(e.lngLat).setDOMContent(h('div', { class: 'popup', id: 'boundary-popup' }, table)).addTo(map);
 });
-for (const id of clickable) {
+for (const id of [...clickable, 'proposals', 'seismic']) {
   map.on('mouseenter', id, () => (map.getCanvas().style.cursor = 'pointer'));
   map.on('mouseleave', id, () => (map.getCanvas().style.cursor = ''));
 }
@@ -820,10 +854,154 @@ async function clearLocal(): Promise<void> {
   location.reload();
 }
 
+// ---------------------------------------------------------------- sections and survey planning
+let drawing: [number, number][] | null = null;
+let currentSection: SectionData | null = null;
+const planValues: Record<string, unknown> = {};
+
+function showDrawn(): void {
+  const pts = drawing ?? [];
+  setSource('drawn', {
+    type: 'FeatureCollection',
+    features: [
+      ...(pts.length > 1 ? [{ type: 'Feature', properties: {}, geometry: { type: 'LineString', coordinates: pts } }] : []),
+      ...pts.map((p) => ({ type: 'Feature', properties: {}, geometry: { type: 'Point', coordinates: p } })),
+    ],
+  });
+}
+
+function startDrawing(): void {
+  drawing = [];
+  map.doubleClickZoom.disable();
+  map.getCanvas().style.cursor = 'crosshair';
+  setStatus('Click points along the section; double-click (or press Enter) to finish, Escape to cancel.');
+}
+
+function finishDrawing(): void {
+  const pts = drawing;
+  drawing = null;
+  map.getCanvas().style.cursor = '';
+  setTimeout(() => map.doubleClickZoom.enable(), 0);
+  if (pts && pts.length >= 2) void openSection(pts, 'Drawn section');
+  else setStatus('A section needs at least two points.');
+}
+
+map.on('dblclick', (e) => {
+  if (!drawing) return;
+  e.preventDefault();
+  finishDrawing();
+});
+window.addEventListener('keydown', (e) => {
+  if (!drawing) return;
+  if (e.key === 'Enter') finishDrawing();
+  if (e.key === 'Escape') {
+    drawing = null;
+    showDrawn();
+    map.getCanvas().style.cursor = '';
+    map.doubleClickZoom.enable();
+    setStatus('Drawing cancelled.');
+  }
+});
+
+async function openSection(lonlat: [number, number][], title: string): Promise<void> {
+  try {
+    drawing = null;
+    setSource('drawn', { type: 'FeatureCollection', features: [{ type: 'Feature', properties: {}, geometry: { type: 'LineString', coordinates: lonlat } }] });
+    currentSection = await engine.section(lonlat, title);
+    sectionPanel.hidden = false;
+    drawSection();
+    setStatus(`${title}: ${fmt(currentSection.lengthKm, 1)} km, ${currentSection.crossings.length} boundary crossings.`);
+  } catch (err) {
+    setStatus(`Section: ${(err as Error).message}`, true);
+  }
+}
+
+function drawSection(): void {
+  clear(sectionBody);
+  if (!currentSection) return;
+  document.getElementById('section-title')!.textContent = `${currentSection.title} — ${fmt(currentSection.lengthKm, 1)} km`;
+  const width = Math.max(400, sectionBody.clientWidth - 8 || 900);
+  sectionBody.append(renderSection(currentSection, width, Number(veSelect.value)));
+}
+
+async function sectionImage(): Promise<void> {
+  const svg = sectionBody.querySelector('svg');
+  if (!svg) return;
+  const png = await svgToPng(svg as SVGSVGElement);
+  download('section.png', await png.arrayBuffer(), 'image/png');
+}
+
+function renderPlanBox(result: PlanData | null = null): void {
+  clear(planBox);
+  planBox.append(
+    h('p', { class: 'warning', text: 'Planning aid only: marine surveys need permits, environmental mitigation and qualified operators, under local rules.' }),
+    h('button', { class: 'small', id: 'btn-draw', onclick: () => startDrawing() }, 'Draw a section line'),
+    h('p', { class: 'hint', text: 'Or click an existing or proposed line to see its section.' }),
+  );
+  const field = (spec: (typeof PLAN_SPECS)[number]) => {
+    const v = planValues[spec.key] ?? DEFAULT_PLAN[spec.key];
+    const input = spec.boolean
+      ? h('input', { type: 'checkbox', id: `plan-${spec.key}`, checked: v === true, onchange: (e: Event) => (planValues[spec.key] = (e.target as HTMLInputElement).checked) })
+      : h('input', { type: 'number', step: 'any', id: `plan-${spec.key}`, value: v === null ? '' : String(v), placeholder: spec.nullable ? 'not set' : '',
+          onchange: (e: Event) => (planValues[spec.key] = (e.target as HTMLInputElement).value === '' ? null : Number((e.target as HTMLInputElement).value)) });
+    return h('div', { class: 'param' }, h('label', { for: `plan-${spec.key}`, text: spec.label }), h('div', { class: 'param-input' }, input, h('span', { class: 'unit', text: spec.unit })),
+      h('div', { class: 'doc', text: `${spec.doc} Default ${DEFAULT_PLAN[spec.key] ?? 'none'}. Source: ${spec.source}.` }));
+  };
+  const main = ['spacingKm', 'overhangLandwardKm', 'overhangOceanwardKm', 'clipToLicence', 'costPerKm'];
+  planBox.append(
+    ...PLAN_SPECS.filter((sp) => main.includes(sp.key)).map(field),
+    h('details', {}, h('summary', { text: 'More planning parameters' }), ...PLAN_SPECS.filter((sp) => !main.includes(sp.key)).map(field)),
+    h('button', { class: 'small', id: 'btn-plan', onclick: () => void propose() }, 'Propose lines'),
+  );
+  if (!result) return;
+  const pr = result.programme;
+  const fc = result.lines as { features: { properties: Record<string, unknown>; geometry: { coordinates: [number, number][] } }[] };
+  planBox.append(
+    h('table', { id: 'programme', class: 'props' },
+      h('tr', {}, h('th', { text: 'lines' }), h('td', { text: String(pr.lines) })),
+      h('tr', {}, h('th', { text: 'line-km (geodesic)' }), h('td', { text: fmt(pr.lineKm, 1) })),
+      h('tr', {}, h('th', { text: 'acquisition' }), h('td', { text: `${fmt(pr.totalDays, 1)} days incl. downtime (${fmt(pr.productiveHours, 0)} h productive)` })),
+      h('tr', {}, h('th', { text: 'cost' }), h('td', { text: pr.cost === null ? 'set a cost per line-km' : fmt(pr.cost, 0) })),
+    ),
+    h('div', { class: 'legend-title', text: 'Ranked proposals (cut the list at your budget)' }),
+    h('table', { id: 'proposal-list', class: 'props' },
+      h('tr', {}, h('th', { text: '#' }), h('th', { text: 'line' }), h('th', { text: 'km' }), h('th', { text: 'cum. km' }), h('th', { text: 'record s' }), h('th', { text: '' })),
+      ...fc.features.map((f) => h('tr', {},
+        h('td', { text: String(f.properties.rank) }),
+        h('td', { text: `${f.properties.id} (${f.properties.kind})` }),
+        h('td', { text: fmt(Number(f.properties.length_km), 1) }),
+        h('td', { text: fmt(Number(f.properties.cumulative_km), 0) }),
+        h('td', { text: String(f.properties.record_length_s) }),
+        h('td', {}, h('button', { class: 'small', title: 'Show its section', onclick: () => void openSection(f.geometry.coordinates, `Proposed line ${f.properties.id}`) }, 'View')),
+      )),
+    ),
+    h('p', { class: 'hint', text: result.dropped.length ? `Dropped: ${result.dropped.map((d) => `${d.id} (${d.reason})`).join('; ')}` : 'No proposal dropped.' }),
+    h('p', { class: 'hint', text: 'Yellow stretches on the midline: farther than half the spacing from any existing line or pick.' }),
+    h('button', { class: 'small', id: 'export-plan-geojson', onclick: () => download('survey-lines.geojson', result.geojson, 'application/geo+json') }, 'survey-lines.geojson'),
+    h('button', { class: 'small', id: 'export-plan-csv', onclick: () => download('survey-lines.csv', result.csv, 'text/csv') }, 'survey-lines.csv'),
+  );
+}
+
+async function propose(): Promise<void> {
+  try {
+    setStatus('Proposing lines…');
+    const r = await engine.plan(planValues);
+    setSource('proposals', r.lines);
+    setSource('midline', r.midline);
+    setSource('gaps', r.gaps);
+    renderPlanBox(r);
+    setStatus(`Proposed ${r.programme.lines} lines, ${fmt(r.programme.lineKm, 0)} line-km.${r.warnings.length ? ' ' + r.warnings.join(' ') : ''}`);
+    window.__taperline.planned = (window.__taperline.planned ?? 0) + 1;
+  } catch (err) {
+    setStatus(`Planning: ${(err as Error).message}`, true);
+  }
+}
+
 // ---------------------------------------------------------------- start
 renderLayers();
 renderLegend();
 renderParams();
+renderPlanBox();
 void (async () => {
   let stored: StoredProject | null = null;
   try {

@@ -48,7 +48,33 @@ export type ToWorker =
       vectors: Partial<Record<VectorRole, string>>;
       params: Record<string, unknown>;
     }
-  | { type: 'export'; requestId: number; time: string; version: string };
+  | { type: 'export'; requestId: number; time: string; version: string }
+  | { type: 'section'; requestId: number; lonlat: [number, number][]; title: string }
+  | { type: 'plan'; requestId: number; params: Record<string, unknown> };
+
+export interface SectionData {
+  readonly title: string;
+  readonly chainageKm: Float64Array;
+  readonly seabed: Float32Array;
+  readonly basement: Float32Array;
+  readonly moho: Float32Array;
+  readonly domain: Uint8Array;
+  readonly crossings: { kind: string; chainageKm: number }[];
+  readonly picks: { kind: string; line: string | null; chainageKm: number; offsetKm: number }[];
+  readonly csv: string;
+  readonly lengthKm: number;
+}
+
+export interface PlanData {
+  readonly lines: unknown; // RFC 7946 FeatureCollection of proposed lines (properties as in survey-lines.geojson)
+  readonly midline: unknown; // FeatureCollection of the smoothed midline
+  readonly gaps: unknown; // FeatureCollection of gap stretches (LineStrings along the midline)
+  readonly programme: { lines: number; lineKm: number; productiveHours: number; totalDays: number; cost: number | null };
+  readonly dropped: { id: string; kind: string; reason: string }[];
+  readonly csv: string;
+  readonly geojson: string;
+  readonly warnings: string[];
+}
 
 export type FromWorker =
   | { type: 'loaded'; id: string; report: GridReadReport | null; features?: number; warnings?: string[] }
@@ -57,4 +83,6 @@ export type FromWorker =
   | { type: 'progress'; runId: number; stage: string; fraction: number }
   | { type: 'result'; runId: number; result: DisplayResult }
   | { type: 'run-error'; runId: number; message: string }
-  | { type: 'exported'; requestId: number; files: Record<string, ArrayBuffer> };
+  | { type: 'exported'; requestId: number; files: Record<string, ArrayBuffer> }
+  | { type: 'section-result'; requestId: number; section: SectionData | null; error?: string }
+  | { type: 'plan-result'; requestId: number; plan: PlanData | null; error?: string };

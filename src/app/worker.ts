@@ -12,6 +12,12 @@ import { readGeoTiff } from '../io/geotiff-read.js';
 import { readXyz } from '../io/xyz-read.js';
 import { runPipeline, type GridInput, type PipelineResult, type VectorInput } from '../pipeline.js';
 import type { FromWorker, ToWorker } from './messages.js';
+import { WGS84 } from '../crs/registry.js';
+import { transformer } from '../crs/transform.js';
+import { sectionCsv } from '../survey/section.js';
+import { planFromResult, sectionAlong } from '../survey/run.js';
+import { surveyCsv, surveyGeoJson } from '../export/survey.js';
+import { splitLine, toLonLat } from '../export/rfc7946.js';
 
 const grids = new Map<string, GridInput>();
 const vectors = new Map<string, VectorInput>();
@@ -103,6 +109,73 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
           post({ type: 'result', runId: m.runId, result }, [...Object.values(gridsOut).map((a) => a.buffer), domains.buffer]);
         } catch (err) {
           post({ type: 'run-error', runId: m.runId, message: (err as Error).message });
+        }
+        break;
+      }
+      case 'section': {
+        try {
+          if (!last) throw new Error('compute the grids first');
+          const t = transformer(WGS84, last.geometry.crs);
+          const path = m.lonlat.map((q) => t.forward(q) as [number, number]);
+          const s = sectionAlong(last, path);
+          const picks = last.evidence.picks
+            .map((pk) => {
+              let best = Infinity;
+              let at = 0;
+              for (let k = 0; k < s.x.length; k++) {
+                const d = Math.hypot(s.x[k] - pk.x, s.y[k] - pk.y);
+                if (d < best) (best = d), (at = k);
+              }
+              return { kind: pk.kind, line: pk.line ?? null, chainageKm: s.chainageKm[at], offsetKm: best / 1000 };
+            })
+            .filter((pk) => pk.offsetKm <= 2);
+          const crsName = last.geometry.crs.id === 'PROJ4' ? last.geometry.crs.proj4 : `${last.geometry.crs.id} ${last.geometry.crs.name}`;
+          post({
+            type: 'section-result',
+            requestId: m.requestId,
+            section: {
+              title: m.title, chainageKm: s.chainageKm, seabed: s.seabed, basement: s.basement, moho: s.moho, domain: s.domain,
+              crossings: s.crossings.map((c) => ({ kind: c.kind, chainageKm: c.chainageKm })), picks, csv: sectionCsv(s, crsName),
+              lengthKm: s.chainageKm[s.chainageKm.length - 1],
+            },
+          });
+        } catch (err) {
+          post({ type: 'section-result', requestId: m.requestId, section: null, error: (err as Error).message });
+        }
+        break;
+      }
+      case 'plan': {
+        try {
+          if (!last) throw new Error('compute the grids first');
+          const sp = planFromResult(last, m.params);
+          const crs = last.geometry.crs;
+          const ll = (r: [number, number][]) => splitLine(toLonLat(r, crs, 500));
+          const fc = (geoms: [number, number][][][], props: (k: number) => Record<string, unknown>) => ({
+            type: 'FeatureCollection',
+            features: geoms.flatMap((parts, k) => parts.map((c) => ({ type: 'Feature', properties: props(k), geometry: { type: 'LineString', coordinates: c } }))),
+          });
+          const gaps = sp.plan.gaps.map((g) => {
+            const cov = sp.plan.coverage[g.piece];
+            const pts = cov.midline.filter((_, k) => cov.chainageKm[k] >= g.startKm && cov.chainageKm[k] <= g.endKm);
+            return { g, pts };
+          });
+          const survey = surveyGeoJson(sp, crs);
+          post({
+            type: 'plan-result',
+            requestId: m.requestId,
+            plan: {
+              lines: survey,
+              midline: fc(sp.plan.midline.map(ll), () => ({ kind: 'midline' })),
+              gaps: fc(gaps.map((x) => (x.pts.length > 1 ? ll(x.pts) : [])), (k) => ({ rank: gaps[k].g.rank, length_km: Math.round(gaps[k].g.lengthKm * 10) / 10, max_distance_km: Math.round(gaps[k].g.maxDistanceKm * 10) / 10 })),
+              programme: sp.programme,
+              dropped: sp.plan.dropped,
+              csv: surveyCsv(sp, crs),
+              geojson: JSON.stringify(survey, null, 1) + '\n',
+              warnings: sp.plan.warnings,
+            },
+          });
+        } catch (err) {
+          post({ type: 'plan-result', requestId: m.requestId, plan: null, error: (err as Error).message });
         }
         break;
       }

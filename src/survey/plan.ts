@@ -60,8 +60,9 @@ export interface Gap {
   endKm: number;
   lengthKm: number;
   maxDistanceKm: number;
-  /** Midpoint of the gap in map coordinates. */
+  /** Midpoint of the gap in map coordinates, and which midline piece it lies on. */
   at: [number, number];
+  piece: number;
   rank: number;
 }
 
@@ -310,7 +311,7 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
       while (k < m.length && dist[k] > p.spacingKm / 2) worst = Math.max(worst, dist[k++]);
       const end = k - 1;
       const at = m[Math.floor((start + end) / 2)];
-      gaps.push({ startKm: chain[start], endKm: chain[end], lengthKm: chain[end] - chain[start], maxDistanceKm: worst, at: [at[0], at[1]], rank: 0 });
+      gaps.push({ startKm: chain[start], endKm: chain[end], lengthKm: chain[end] - chain[start], maxDistanceKm: worst, at: [at[0], at[1]], piece: coverage.length - 1, rank: 0 });
     }
   }
   gaps.sort((a, b) => b.lengthKm - a.lengthKm);

@@ -210,6 +210,49 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     expect(Math.abs(edgeRaster - cx)).toBeLessThanOrEqual(1.5);
   });
 
+  it('draws a section line and shows its section with water, sediment, crust and mantle, domains and crossings', async () => {
+    // back to a normal view of the whole grid
+    await p.page.evaluate(() => window.__taperline.map.jumpTo({ center: [-129.0, -35.0], zoom: 7.2 }));
+    await p.page.waitForTimeout(300);
+    const box = await p.page.evaluate(() => {
+      const r = window.__taperline.map.getContainer().getBoundingClientRect();
+      const a = window.__taperline.map.project([-129.9, -35.05]);
+      const b = window.__taperline.map.project([-128.2, -35.1]);
+      return { ax: r.left + a.x, ay: r.top + a.y, bx: r.left + b.x, by: r.top + b.y };
+    });
+    await p.page.click('#btn-draw');
+    await p.page.mouse.click(box.ax, box.ay);
+    await p.page.mouse.click((box.ax + box.bx) / 2, (box.ay + box.by) / 2);
+    await p.page.mouse.click(box.bx, box.by);
+    await p.page.keyboard.press('Enter');
+    const svg = p.page.locator('#section-panel svg');
+    await svg.waitFor({ timeout: 20_000 });
+    for (const layer of ['water', 'sediment', 'crust', 'mantle', 'domain']) expect(await svg.locator(`[data-layer="${layer}"]`).count(), layer).toBeGreaterThan(0);
+    expect(await svg.locator('[data-crossing="crustal-taper-limit"]').count()).toBeGreaterThan(0);
+    expect(await svg.locator('[data-ve="1"]').textContent()).toMatch(/true scale/);
+    const [csv] = await Promise.all([p.page.waitForEvent('download'), p.page.click('#section-csv')]);
+    const text = readFileSync((await csv.path())!, 'utf8');
+    expect(text.split('\n')[1]).toBe('chainage_km,x_m,y_m,lon_deg,lat_deg,seabed_m,top_basement_m,moho_m,crustal_thickness_m,domain');
+    await p.page.selectOption('#section-ve', '5');
+    expect(await svg.locator('[data-ve="5"]').count()).toBe(1);
+  });
+
+  it('proposes lines, shows them on the map and exports them', async () => {
+    await p.page.click('#section-close');
+    await p.page.click('#btn-plan');
+    await p.page.waitForFunction(() => (window.__taperline.planned ?? 0) >= 1, null, { timeout: 60_000 });
+    await p.page.waitForTimeout(500);
+    const shot = await pixels(p.page, MAP);
+    expect(countColour(shot, [0x00, 0x9e, 0x73], 20)).toBeGreaterThan(100); // dip lines (Okabe–Ito bluish green)
+    expect(await p.page.locator('#proposal-list tr').count()).toBeGreaterThan(5);
+    const [dl] = await Promise.all([p.page.waitForEvent('download'), p.page.click('#export-plan-geojson')]);
+    const fc = JSON.parse(readFileSync((await dl.path())!, 'utf8'));
+    expect(rfc7946Violations(fc)).toEqual([]);
+    expect(fc.features[0].properties.rank).toBe(1);
+    const [dl2] = await Promise.all([p.page.waitForEvent('download'), p.page.click('#export-plan-csv')]);
+    expect(readFileSync((await dl2.path())!, 'utf8')).toMatch(/start_lon,start_lat/);
+  });
+
   it('never sends a request outside the page origin', () => {
     const origin = new URL(app.url).origin;
     const outside = p.requests.filter((u) => !u.startsWith(origin) && !u.startsWith('data:') && !u.startsWith('blob:'));
