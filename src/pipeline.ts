@@ -51,6 +51,27 @@ export interface PipelineInputs {
 export interface PipelineOptions {
   readonly params?: Partial<Record<string, unknown>>;
   readonly onProgress?: (stage: string, fraction: number) => void;
+  /** Reuse of the derived grids between runs, owned by the caller (see createPipelineCache). */
+  readonly cache?: PipelineCache;
+}
+
+/** Parameters that only affect domains and lines: changing them does not recompute the derived grids. */
+const LINE_ONLY: readonly (keyof Params)[] = [
+  'taperThreshold', 'couplingThickness', 'neckingFraction', 'oceanicMin', 'oceanicMax', 'oceanwardAzimuth', 'minBlockArea', 'pickReach', 'smoothCells',
+];
+
+export interface PipelineCache {
+  areas?: { geometry: GridGeometry; values: Float64Array };
+  entry: { basement: Float32Array; moho: GridInput; seabed: GridInput | null; key: string; derived: Derived; mohoA: Float32Array; seabedA: Float32Array | null; warnings: string[] } | null;
+}
+
+/** A cache for interactive use: a parameter change that touches only domains or lines reuses the grids. */
+export function createPipelineCache(): PipelineCache {
+  return { entry: null };
+}
+
+function deriveKey(p: Params): string {
+  return JSON.stringify(Object.entries(p).filter(([k]) => !LINE_ONLY.includes(k as keyof Params)));
 }
 
 export interface DomainArea {
@@ -84,6 +105,9 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   const geometry = inputs.basement.grid.geometry;
   const n = geometry.nx * geometry.ny;
 
+  const key = deriveKey(params);
+  const hit = options.cache?.entry;
+  const reuse = hit && hit.basement === inputs.basement.grid.values && hit.moho === inputs.moho && hit.seabed === (inputs.seabed ?? null) && hit.key === key ? hit : null;
   progress('resampling', 0.05);
   const onAnalysis = (inp: GridInput | null | undefined): Float32Array | null => {
     if (!inp) return null;
@@ -95,11 +119,14 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     warnings.push(`${inp.name} resampled onto the analysis grid (${inputs.basement.name}); ${((100 * valid) / n).toFixed(1)}% of cells covered`);
     return r;
   };
-  const moho = onAnalysis(inputs.moho)!;
-  const seabed = onAnalysis(inputs.seabed);
+  const moho = reuse ? reuse.mohoA : onAnalysis(inputs.moho)!;
+  const seabed = reuse ? reuse.seabedA : onAnalysis(inputs.seabed);
 
   progress('derived grids', 0.15);
-  const derived = derive({ seabed, basement: inputs.basement.grid.values, moho }, params);
+  const derived = reuse ? reuse.derived : derive({ seabed, basement: inputs.basement.grid.values, moho }, params);
+  if (options.cache && !reuse) {
+    options.cache.entry = { basement: inputs.basement.grid.values, moho: inputs.moho, seabed: inputs.seabed ?? null, key, derived, mohoA: moho, seabedA: seabed, warnings: [...warnings] };
+  }
   let validMoho = 0;
   for (let k = 0; k < n; k++) if (moho[k] === moho[k] && inputs.basement.grid.values[k] === inputs.basement.grid.values[k]) validMoho++;
   if (validMoho > 0 && derived.flags.mohoAboveBasement > 0.5 * validMoho) {
@@ -109,6 +136,7 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     );
   }
   warnings.push(...derived.warnings);
+  if (reuse) for (const w of reuse.warnings) if (!warnings.includes(w)) warnings.push(w);
   if (Number.isFinite(derived.suggestedTc0) && Math.abs(derived.suggestedTc0 - params.tc0) > 3000) {
     warnings.push(`the data suggest a reference thickness near ${(derived.suggestedTc0 / 1000).toFixed(1)} km (95th percentile of crustal thickness); tc0 = ${params.tc0 / 1000} km is in use (not changed)`);
   }
@@ -182,7 +210,9 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   const sed = derived.grids['sediment-thickness'];
   // a cell has data when its basement does and, with a seabed grid, its seabed and sediment do (no pick error)
   for (let k = 0; k < n; k++) valid[k] = b[k] === b[k] && (!seabed || sed[k] === sed[k]) ? 1 : 0;
-  const areasPerCell = cellAreas(geometry);
+  // geodesic cell areas depend on the geometry only: reuse them between interactive runs
+  const areasPerCell = options.cache?.areas && sameGeometry(options.cache.areas.geometry, geometry) ? options.cache.areas.values : cellAreas(geometry);
+  if (options.cache) options.cache.areas = { geometry, values: areasPerCell };
   let meanCell = 0;
   for (let k = 0; k < n; k++) meanCell += areasPerCell[k];
   meanCell /= n;

@@ -254,7 +254,7 @@ function renderRaster(): void {
 function renderVectors(): void {
   const r = state.result;
   setSource('boundaries', r ? r.boundaries : { type: 'FeatureCollection', features: [] });
-  setSource('outlines', r ? r.domainOutlines : { type: 'FeatureCollection', features: [] });
+  setSource('outlines', r?.domainOutlines ?? { type: 'FeatureCollection', features: [] });
   const vec = (role: VectorRole) => {
     const f = state.files.find((x) => x.kind === 'vector' && x.role === role && !x.error);
     if (!f) return { type: 'FeatureCollection', features: [] };
@@ -363,7 +363,12 @@ function renderLayers(): void {
     oninput: (e: Event) => ((state.opacity = Number((e.target as HTMLInputElement).value)), renderRaster()) });
   const check = (key: string, label: string) =>
     h('label', { class: 'check' }, h('input', { type: 'checkbox', id: `vis-${key}`, checked: state.visible[key],
-      onchange: (e: Event) => ((state.visible[key] = (e.target as HTMLInputElement).checked), applyVisibility(), autosave()) }), label);
+      onchange: (e: Event) => {
+        state.visible[key] = (e.target as HTMLInputElement).checked;
+        applyVisibility();
+        autosave();
+        if (key === 'outlines' && state.visible.outlines && state.result && !state.result.domainOutlines) scheduleRun();
+      } }), label);
   layersBox.append(
     h('label', { class: 'row' }, h('span', { text: 'Raster' }), select),
     h('label', { class: 'row' }, h('span', { text: 'Opacity' }), opacity),
@@ -724,7 +729,7 @@ async function run(fit: boolean): Promise<void> {
   };
   statusText.textContent = 'Computing…';
   try {
-    const result = await engine.run(state.params);
+    const result = await engine.run(state.params, state.visible.outlines);
     state.result = result;
     window.__taperline.runs++;
     window.__taperline.lastMillis = performance.now() - t0;

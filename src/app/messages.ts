@@ -31,7 +31,7 @@ export interface DisplayResult {
   readonly grids: Record<string, Float32Array>;
   readonly domains: Uint8Array;
   readonly boundaries: unknown; // RFC 7946 FeatureCollection (whole grid)
-  readonly domainOutlines: unknown; // RFC 7946 FeatureCollection
+  readonly domainOutlines: unknown | null; // RFC 7946 FeatureCollection, when asked for
   readonly summary: RunSummary;
   readonly millis: number;
 }
@@ -47,6 +47,8 @@ export type ToWorker =
       grids: Partial<Record<GridRole, string>>;
       vectors: Partial<Record<VectorRole, string>>;
       params: Record<string, unknown>;
+      /** Domain polygons are built only when their layer is shown. */
+      outlines: boolean;
     }
   | { type: 'export'; requestId: number; time: string; version: string }
   | { type: 'section'; requestId: number; lonlat: [number, number][]; title: string }

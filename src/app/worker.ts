@@ -10,7 +10,7 @@ import { exportValues, outputFiles, summary as runSummary } from '../export/outp
 import { readGeoJson } from '../io/geojson-read.js';
 import { readGeoTiff } from '../io/geotiff-read.js';
 import { readXyz } from '../io/xyz-read.js';
-import { runPipeline, type GridInput, type PipelineResult, type VectorInput } from '../pipeline.js';
+import { createPipelineCache, runPipeline, type GridInput, type PipelineResult, type VectorInput } from '../pipeline.js';
 import type { FromWorker, ToWorker } from './messages.js';
 import { WGS84 } from '../crs/registry.js';
 import { transformer } from '../crs/transform.js';
@@ -22,6 +22,7 @@ import { splitLine, toLonLat } from '../export/rfc7946.js';
 const grids = new Map<string, GridInput>();
 const vectors = new Map<string, VectorInput>();
 let last: PipelineResult | null = null;
+const cache = createPipelineCache();
 
 const post = (m: FromWorker, transfer: Transferable[] = []) => (self as unknown as Worker).postMessage(m, transfer);
 
@@ -78,10 +79,11 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
           if (!basement || !moho) throw new Error('a top-basement grid and a Moho grid are needed (assign the roles in Data)');
           const r = runPipeline(
             { basement, moho, seabed: g('seabed'), licence: v('licence'), lines: v('lines'), picks: v('picks'), isochrons: v('isochrons'), crust: v('crust') },
-            { params: m.params, onProgress: (stage, fraction) => post({ type: 'progress', runId: m.runId, stage, fraction }) },
+            { params: m.params, cache, onProgress: (stage, fraction) => post({ type: 'progress', runId: m.runId, stage, fraction }) },
           );
           last = r;
-          const s = runSummary(r, { version: '', time: '', tool: 'app' }) as Record<string, unknown>;
+          const regional = boundariesGeoJson(r, 'regional');
+          const s = runSummary(r, { version: '', time: '', tool: 'app' }, r.boundaries.inLicence ? undefined : regional) as Record<string, unknown>;
           const gridsOut: Record<string, Float32Array> = {};
           // shown as exported: β, γ and β-from-subsidence masked over oceanic crust, ages outside it
           for (const name of Object.keys(r.derived.grids)) gridsOut[name] = exportValues(r, name).slice();
@@ -90,8 +92,8 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
             geometry: { ...r.geometry, crs: { ...r.geometry.crs } },
             grids: gridsOut,
             domains,
-            boundaries: boundariesGeoJson(r, 'regional'),
-            domainOutlines: domainsGeoJson(r),
+            boundaries: regional,
+            domainOutlines: m.outlines ? domainsGeoJson(r) : null,
             summary: {
               areas: r.areas.total,
               areasInLicence: r.areas.inLicence,

@@ -8,7 +8,7 @@ import { DOMAIN_NAMES, FLAG_ATYPICAL_OCEANIC, FLAG_BLOCK, FLAG_ENCLOSED_THIN, FL
 import { writeGeoTiff } from '../io/geotiff-write.js';
 import { DEFAULT_PARAMS, PARAM_SPECS } from '../params.js';
 import type { PipelineResult } from '../pipeline.js';
-import { boundariesGeoJson, domainsGeoJson } from './geojson.js';
+import { boundariesGeoJson, domainsGeoJson, type FeatureCollection } from './geojson.js';
 
 export interface RunInfo {
   readonly version: string;
@@ -44,7 +44,7 @@ export function gridFiles(r: PipelineResult): Record<string, Uint8Array> {
   return files;
 }
 
-export function summary(r: PipelineResult, run: RunInfo): Record<string, unknown> {
+export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCollection): Record<string, unknown> {
   const inputs = Object.entries(r.inputs)
     .filter(([, v]) => v)
     .map(([role, v]) => {
@@ -52,7 +52,7 @@ export function summary(r: PipelineResult, run: RunInfo): Record<string, unknown
       return { role, name: meta.name, bytes: meta.bytes ?? null, sha256: meta.sha256 ?? null, detected: meta.report ?? null };
     });
   const lengths: Record<string, number> = {};
-  const bfc = boundariesGeoJson(r);
+  const bfc = boundaries ?? boundariesGeoJson(r);
   for (const f of bfc.features) {
     const k = String(f.properties.kind);
     if (typeof f.properties.length_km === 'number') lengths[k] = Math.round(((lengths[k] ?? 0) + f.properties.length_km) * 1000) / 1000;
@@ -118,12 +118,13 @@ function classFlagCounts(flags: Uint8Array): Record<string, number> {
 }
 
 export function outputFiles(r: PipelineResult, run: RunInfo): Record<string, Uint8Array> {
+  const bfc = boundariesGeoJson(r);
   const files: Record<string, Uint8Array> = {
-    'boundaries.geojson': json(boundariesGeoJson(r)),
+    'boundaries.geojson': json(bfc),
     'domains.geojson': json(domainsGeoJson(r)),
     ...gridFiles(r),
   };
   if (r.boundaries.inLicence) files['boundaries-whole-grid.geojson'] = json(boundariesGeoJson(r, 'regional'));
-  files['summary.json'] = json(summary(r, run));
+  files['summary.json'] = json(summary(r, run, bfc));
   return files;
 }

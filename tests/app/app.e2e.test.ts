@@ -196,7 +196,9 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     for (let x = cx - 60; x < cx + 60; x++) if (near(pixelAt(raster, x, cy), hyper) && near(pixelAt(raster, x + 1, cy), trans)) edgeRaster = x + 0.5;
     expect(edgeRaster).toBeGreaterThan(0);
     // outline only (raster hidden): where is the dark line?
-    await p.page.setChecked('#vis-outlines', true);
+    const before = await p.page.evaluate(() => window.__taperline.runs);
+    await p.page.setChecked('#vis-outlines', true); // domain polygons are built on demand: one more run
+    await waitReady(p.page, before + 1);
     await p.page.fill('#opacity', '0');
     await p.page.dispatchEvent('#opacity', 'input');
     await p.page.waitForTimeout(500);

@@ -146,3 +146,20 @@ describe('derive on the invented demo (acceptance against the generator)', () =>
     expect(d.flags.noData).toBe(demo.seabed.filter(Number.isNaN).length);
   });
 });
+
+describe('pipeline cache (interactive recompute)', () => {
+  it('reuses the derived grids when only line parameters change, and gives the same result as a fresh run', async () => {
+    const { demoInputs } = await import('../helpers/demo-run.js');
+    const { createPipelineCache, runPipeline } = await import('../../src/pipeline.js');
+    const inputs = await demoInputs();
+    const cache = createPipelineCache();
+    const a = runPipeline(inputs, { params: { riftAge: 110 }, cache });
+    const b = runPipeline(inputs, { params: { riftAge: 110, taperThreshold: 3000 }, cache });
+    expect(b.derived).toBe(a.derived); // reused
+    const fresh = runPipeline(inputs, { params: { riftAge: 110, taperThreshold: 3000 } });
+    expect(Array.from(b.classified.domains)).toEqual(Array.from(fresh.classified.domains));
+    expect(b.warnings).toEqual(fresh.warnings);
+    const c = runPipeline(inputs, { params: { riftAge: 100, taperThreshold: 3000 }, cache });
+    expect(c.derived).not.toBe(a.derived); // rift age changes the grids: recomputed
+  });
+});
