@@ -3,11 +3,11 @@
  * boundaries, areas and a summary out. No files, no DOM, no clock (the caller passes `now`).
  */
 
-import { WGS84 } from './crs/registry.js';
+import { crsFromEpsg, WGS84 } from './crs/registry.js';
 import { transformer } from './crs/transform.js';
 import { densify } from './crs/densify.js';
 import { cellAreas, rasterizeRings } from './grid/cell-area.js';
-import { sameGeometry, type GridGeometry } from './grid/geometry.js';
+import { extentOf, sameGeometry, type GridGeometry } from './grid/geometry.js';
 import type { Grid } from './grid/grid.js';
 import { resample } from './grid/resample.js';
 import { derive, type Derived } from './derive/derive.js';
@@ -61,6 +61,7 @@ const LINE_ONLY: readonly (keyof Params)[] = [
 ];
 
 export interface PipelineCache {
+  projected?: { source: Float32Array; geometry: GridGeometry; values: Float32Array };
   areas?: { geometry: GridGeometry; values: Float64Array };
   entry: { basement: Float32Array; moho: GridInput; seabed: GridInput | null; key: string; derived: Derived; mohoA: Float32Array; seabedA: Float32Array | null; warnings: string[] } | null;
 }
@@ -98,16 +99,48 @@ export interface PipelineResult {
   readonly warnings: string[];
 }
 
+/** The analysis geometry: the basement grid's own, or for a degree grid a UTM grid of similar resolution. */
+function analysisGrid(basement: GridInput, warnings: string[], cache?: PipelineCache): { geometry: GridGeometry; basementValues: Float32Array } {
+  const g = basement.grid.geometry;
+  if (g.crs.units !== 'degree') return { geometry: g, basementValues: basement.grid.values };
+  const hit = cache?.projected?.source === basement.grid.values ? cache.projected : null;
+  const e = extentOf(g);
+  const lon = (e.xmin + e.xmax) / 2;
+  const lat = (e.ymin + e.ymax) / 2;
+  const zone = Math.min(60, Math.max(1, Math.floor((lon + 180) / 6) + 1));
+  const utm = crsFromEpsg((lat >= 0 ? 32600 : 32700) + zone);
+  warnings.push(`${basement.name} is in geographic coordinates: analysed on ${utm.name} (${utm.id}) so that lengths, spacings and areas are in metres`);
+  if (hit) return { geometry: hit.geometry, basementValues: hit.values };
+  const t = transformer(g.crs, utm);
+  let xmin = Infinity, xmax = -Infinity, ymin = Infinity, ymax = -Infinity;
+  for (let q = 0; q <= 20; q++) {
+    for (const [x, y] of [[e.xmin + ((e.xmax - e.xmin) * q) / 20, e.ymin], [e.xmin + ((e.xmax - e.xmin) * q) / 20, e.ymax], [e.xmin, e.ymin + ((e.ymax - e.ymin) * q) / 20], [e.xmax, e.ymin + ((e.ymax - e.ymin) * q) / 20]]) {
+      const [u, v] = t.forward([x, y]);
+      xmin = Math.min(xmin, u); xmax = Math.max(xmax, u); ymin = Math.min(ymin, v); ymax = Math.max(ymax, v);
+    }
+  }
+  // cell size: the grid's north–south spacing in metres (1° of latitude ≈ 111.2 km), rounded to 10 m
+  const cell = Math.max(10, Math.round((Math.abs(g.dy) * 111_195) / 10) * 10);
+  const nx = Math.max(1, Math.ceil((xmax - xmin) / cell));
+  const ny = Math.max(1, Math.ceil((ymax - ymin) / cell));
+  const geometry: GridGeometry = { nx, ny, x0: xmin + cell / 2, y0: ymax - cell / 2, dx: cell, dy: -cell, registration: 'area', crs: utm };
+  const values = resample(basement.grid, geometry).values;
+  if (cache) cache.projected = { source: basement.grid.values, geometry, values };
+  return { geometry, basementValues: values };
+}
+
 export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {}): PipelineResult {
   const progress = options.onProgress ?? (() => {});
   const params = resolveParams(options.params ?? {});
   const warnings: string[] = [];
-  const geometry = inputs.basement.grid.geometry;
+  // The analysis grid is the top-basement grid's geometry; a geographic (degree) basement grid is
+  // first resampled onto the UTM zone of its centre, so that lengths, spacings and areas are metric.
+  const { geometry, basementValues } = analysisGrid(inputs.basement, warnings, options.cache);
   const n = geometry.nx * geometry.ny;
 
   const key = deriveKey(params);
   const hit = options.cache?.entry;
-  const reuse = hit && hit.basement === inputs.basement.grid.values && hit.moho === inputs.moho && hit.seabed === (inputs.seabed ?? null) && hit.key === key ? hit : null;
+  const reuse = hit && hit.basement === basementValues && hit.moho === inputs.moho && hit.seabed === (inputs.seabed ?? null) && hit.key === key ? hit : null;
   progress('resampling', 0.05);
   const onAnalysis = (inp: GridInput | null | undefined): Float32Array | null => {
     if (!inp) return null;
@@ -123,12 +156,12 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   const seabed = reuse ? reuse.seabedA : onAnalysis(inputs.seabed);
 
   progress('derived grids', 0.15);
-  const derived = reuse ? reuse.derived : derive({ seabed, basement: inputs.basement.grid.values, moho }, params);
+  const derived = reuse ? reuse.derived : derive({ seabed, basement: basementValues, moho }, params);
   if (options.cache && !reuse) {
-    options.cache.entry = { basement: inputs.basement.grid.values, moho: inputs.moho, seabed: inputs.seabed ?? null, key, derived, mohoA: moho, seabedA: seabed, warnings: [...warnings] };
+    options.cache.entry = { basement: basementValues, moho: inputs.moho, seabed: inputs.seabed ?? null, key, derived, mohoA: moho, seabedA: seabed, warnings: [...warnings] };
   }
   let validMoho = 0;
-  for (let k = 0; k < n; k++) if (moho[k] === moho[k] && inputs.basement.grid.values[k] === inputs.basement.grid.values[k]) validMoho++;
+  for (let k = 0; k < n; k++) if (moho[k] === moho[k] && basementValues[k] === basementValues[k]) validMoho++;
   if (validMoho > 0 && derived.flags.mohoAboveBasement > 0.5 * validMoho) {
     throw new InputError(
       inputs.moho.name,
@@ -145,7 +178,7 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   let oceanward: Oceanward;
   if (params.oceanwardAzimuth !== null) oceanward = oceanwardFromAzimuth(params.oceanwardAzimuth);
   else {
-    const fit = oceanwardFromDepth(geometry, seabed ? derived.grids['water-loaded-basement'] : inputs.basement.grid.values);
+    const fit = oceanwardFromDepth(geometry, seabed ? derived.grids['water-loaded-basement'] : basementValues);
     if (fit) oceanward = fit;
     else {
       oceanward = oceanwardFromAzimuth(90);
@@ -206,7 +239,7 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     }
   }
   const valid = new Uint8Array(n);
-  const b = inputs.basement.grid.values;
+  const b = basementValues;
   const sed = derived.grids['sediment-thickness'];
   // a cell has data when its basement does and, with a seabed grid, its seabed and sediment do (no pick error)
   for (let k = 0; k < n; k++) valid[k] = b[k] === b[k] && (!seabed || sed[k] === sed[k]) ? 1 : 0;
@@ -282,7 +315,7 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     licenceName: licenceIn ? String(licenceIn.set.features[0]?.properties.name ?? licenceIn.name) : null,
     evidence: { picks, lines, isochrons, licence },
     inputs,
-    analysis: { seabed, basement: inputs.basement.grid.values, moho },
+    analysis: { seabed, basement: basementValues, moho },
     warnings,
   };
 }

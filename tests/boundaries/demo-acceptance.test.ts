@@ -77,3 +77,25 @@ describe('demo acceptance: proxy only (no picks)', async () => {
     expect(Math.abs(r.oceanward.azimuth - 90)).toBeLessThan(15);
   });
 });
+
+describe('geographic input grids', async () => {
+  it('a lon/lat basement grid is analysed on the UTM zone of its centre, and the taper limit stays put', async () => {
+    const { demoInputs } = await import('../helpers/demo-run.js');
+    const { resample } = await import('../../src/grid/resample.js');
+    const { WGS84 } = await import('../../src/crs/registry.js');
+    const { runPipeline } = await import('../../src/pipeline.js');
+    const inputs = await demoInputs();
+    const ll = { nx: 500, ny: 330, x0: -130.55, y0: -34.15, dx: 0.0066, dy: -0.0055, registration: 'area' as const, crs: WGS84 };
+    const basement = { name: 'basement_ll.tif', grid: resample(inputs.basement.grid, ll) };
+    const moho = { name: 'moho_ll.tif', grid: resample(inputs.moho.grid, ll) };
+    const r = runPipeline({ basement, moho }, { params: { oceanwardAzimuth: 90 } });
+    expect(r.geometry.crs.id).toBe('EPSG:32709');
+    expect(r.geometry.dx).toBe(610); // 0.0055° of latitude ≈ 611.6 m, rounded to 10 m
+    expect(r.warnings.join()).toMatch(/geographic coordinates: analysed on WGS 84 \/ UTM zone 9S/);
+    const truth = truthLines(100)['crustal-taper-limit'] as P[];
+    const got = linesOf(r.boundaries.pieces, 'crustal-taper-limit');
+    let worst = 0;
+    for (const l of got) for (const p of l) if (!excluded(p) && Math.abs(p[1] - 6_125_000) < 80_000) worst = Math.max(worst, distToPolylines(p, [truth]));
+    expect(worst).toBeLessThan(1000); // two resamplings (UTM → lon/lat → UTM) of 500–600 m cells
+  });
+});
