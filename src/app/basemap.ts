@@ -71,6 +71,7 @@ export function baseStyle(): StyleSpecification {
       midline: src(),
       gaps: src(),
       drawn: src(),
+      isochrons: src(),
     },
     layers: [
       { id: 'sea', type: 'background', paint: { 'background-color': COLOURS.sea } },
@@ -85,6 +86,7 @@ export function baseStyle(): StyleSpecification {
         filter: ['==', ['get', 'kind'], 'cot-zone'],
         paint: { 'fill-color': COT_FILL, 'fill-opacity': 0.22, 'fill-outline-color': COT_FILL },
       },
+      { id: 'isochrons', type: 'line', source: 'isochrons', paint: { 'line-color': '#5e3c99', 'line-width': 1.5, 'line-dasharray': [1, 2] } },
       { id: 'seismic', type: 'line', source: 'seismic', paint: { 'line-color': COLOURS.seismic, 'line-width': 1.6, 'line-dasharray': [1, 0] } },
       { id: 'licence', type: 'line', source: 'licence', paint: { 'line-color': COLOURS.licence, 'line-width': 2, 'line-dasharray': [5, 2] } },
       // a pale casing under every boundary keeps it readable over dark and light rasters alike

@@ -50,7 +50,7 @@ const state = {
   result: null as DisplayResult | null,
   layer: 'crustal-thickness',
   opacity: 0.85,
-  visible: { boundaries: true, cot: true, licence: true, seismic: true, picks: true, graticule: true, outlines: false } as Record<string, boolean>,
+  visible: { boundaries: true, cot: true, licence: true, seismic: true, picks: true, isochrons: true, graticule: true, outlines: false } as Record<string, boolean>,
   demo: false,
   running: false,
   rerun: false,
@@ -267,6 +267,7 @@ function renderVectors(): void {
   setSource('licence', vec('licence'));
   setSource('seismic', vec('lines'));
   setSource('picks', vec('picks'));
+  setSource('isochrons', vec('isochrons'));
   applyVisibility();
 }
 
@@ -277,6 +278,7 @@ function applyVisibility(): void {
   vis('licence', state.visible.licence);
   vis('seismic', state.visible.seismic);
   vis('picks', state.visible.picks);
+  vis('isochrons', state.visible.isochrons ?? true);
   vis('graticule', state.visible.graticule);
   vis('domain-outlines', state.visible.outlines);
 }
@@ -373,7 +375,7 @@ function renderLayers(): void {
     h('label', { class: 'row' }, h('span', { text: 'Raster' }), select),
     h('label', { class: 'row' }, h('span', { text: 'Opacity' }), opacity),
     check('boundaries', 'Boundary lines'), check('cot', 'COT zone'), check('licence', 'Licence'), check('seismic', 'Existing seismic lines'),
-    check('picks', 'Picks'), check('outlines', 'Domain cell outlines'), check('graticule', 'Graticule (0.5°)'),
+    check('picks', 'Picks'), check('isochrons', 'Magnetic isochrons'), check('outlines', 'Domain cell outlines'), check('graticule', 'Graticule (0.5°)'),
   );
 }
 
@@ -424,6 +426,10 @@ function renderLegend(): void {
     h('div', { class: 'swatch-row' }, swatchLine('#111', [2.5, 1], 2), 'Licence'),
     h('div', { class: 'swatch-row' }, swatchLine('#3b3b3b', null, 1.6), 'Existing seismic line'),
     h('div', { class: 'swatch-row' }, h('span', { class: 'swatch dot' }), 'Interpreter pick'),
+    h('div', { class: 'swatch-row' }, swatchLine('#5e3c99', [1, 2], 1.5), 'Magnetic isochron'),
+    h('div', { class: 'swatch-row' }, swatchLine('#009E73', null, 3), 'Proposed dip line'),
+    h('div', { class: 'swatch-row' }, swatchLine('#56B4E9', null, 2.5), 'Proposed strike (tie) line'),
+    h('div', { class: 'swatch-row' }, h('span', { class: 'swatch', style: 'background: #F0E442' }), 'Coverage gap on the zone midline'),
   );
 }
 

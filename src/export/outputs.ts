@@ -32,16 +32,36 @@ export function exportValues(r: PipelineResult, name: string): Float32Array {
   return out;
 }
 
-export function gridFiles(r: PipelineResult): Record<string, Uint8Array> {
+export function gridFiles(r: PipelineResult, run?: RunInfo): Record<string, Uint8Array> {
   const files: Record<string, Uint8Array> = {};
+  // provenance in every GeoTIFF: program, version and time (the parameters are in summary.json)
+  const prov = run ? { software: `taperline ${run.version}`, dateTime: tiffTime(run.time) } : {};
   for (const g of DERIVED) {
-    files[`grids/${g.name}.tif`] = writeGeoTiff(r.geometry, exportValues(r, g.name), { noData: 'nan', unit: g.unit || undefined, description: g.desc });
+    files[`grids/${g.name}.tif`] = writeGeoTiff(r.geometry, exportValues(r, g.name), { noData: 'nan', unit: g.unit || undefined, description: g.desc, ...prov });
   }
   files['grids/domains.tif'] = writeGeoTiff(r.geometry, r.classified.domains, {
+    ...prov,
     noData: 0,
     description: `margin domains: ${DOMAIN_NAMES.map((n, k) => `${k} ${n}`).join('; ')}`,
   });
   return files;
+}
+
+function tiffTime(iso: string): string | undefined {
+  const m = /^(\d{4})-(\d\d)-(\d\d)T(\d\d):(\d\d):(\d\d)/.exec(iso);
+  return m ? `${m[1]}:${m[2]}:${m[3]} ${m[4]}:${m[5]}:${m[6]}` : undefined;
+}
+
+/** A foreign member (RFC 7946 §6.1) saying what made a GeoJSON file. */
+export function provenance(r: PipelineResult, run: RunInfo): Record<string, unknown> {
+  return {
+    tool: `taperline ${run.version}`,
+    time: run.time,
+    inputs: Object.values(r.inputs)
+      .filter(Boolean)
+      .map((v) => ({ name: (v as { name: string }).name, sha256: (v as { sha256?: string }).sha256 ?? null })),
+    parameters: 'summary.json',
+  };
 }
 
 export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCollection): Record<string, unknown> {
@@ -119,12 +139,13 @@ function classFlagCounts(flags: Uint8Array): Record<string, number> {
 
 export function outputFiles(r: PipelineResult, run: RunInfo): Record<string, Uint8Array> {
   const bfc = boundariesGeoJson(r);
+  const made = provenance(r, run);
   const files: Record<string, Uint8Array> = {
-    'boundaries.geojson': json(bfc),
-    'domains.geojson': json(domainsGeoJson(r)),
-    ...gridFiles(r),
+    'boundaries.geojson': json({ ...bfc, generated_by: made }),
+    'domains.geojson': json({ ...domainsGeoJson(r), generated_by: made }),
+    ...gridFiles(r, run),
   };
-  if (r.boundaries.inLicence) files['boundaries-whole-grid.geojson'] = json(boundariesGeoJson(r, 'regional'));
+  if (r.boundaries.inLicence) files['boundaries-whole-grid.geojson'] = json({ ...boundariesGeoJson(r, 'regional'), generated_by: made });
   files['summary.json'] = json(summary(r, run, bfc));
   return files;
 }

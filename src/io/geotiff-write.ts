@@ -18,6 +18,10 @@ export interface TiffWriteOptions {
   unit?: string;
   /** Free-text description of band 1 (what the grid holds). */
   description?: string;
+  /** TIFF Software tag: the program and version that made the file (provenance). */
+  software?: string;
+  /** TIFF DateTime tag, "YYYY:MM:DD HH:MM:SS" (the caller supplies the time; the core reads no clock). */
+  dateTime?: string;
 }
 
 type Sample = Float32Array | Uint8Array;
@@ -74,6 +78,8 @@ export function writeGeoTiff(geometry: GridGeometry, data: Sample, options: Tiff
     { tag: 278, type: LONG, values: [rowsPerStrip] },
     { tag: 279, type: LONG, values: Array.from({ length: nStrips }, (_, s) => Math.min(rowsPerStrip, ny - s * rowsPerStrip) * rowBytes) },
     { tag: 284, type: SHORT, values: [1] },
+    ...(options.software ? [{ tag: 305, type: ASCII, values: options.software }] : []),
+    ...(options.dateTime ? [{ tag: 306, type: ASCII, values: options.dateTime }] : []),
     { tag: 339, type: SHORT, values: [isFloat ? 3 : 1] },
     { tag: 33550, type: DOUBLE, values: [geometry.dx, dyAbs, 0] },
     { tag: 33922, type: DOUBLE, values: [0, 0, 0, tieX, tieY, 0] },

@@ -255,6 +255,19 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     expect(readFileSync((await dl2.path())!, 'utf8')).toMatch(/start_lon,start_lat/);
   });
 
+  it('"Clear local data" removes everything stored and starts again on the demo', async () => {
+    const page = (await openPage(app, ctx)).page; // same browser context: shares the stored project
+    expect(await page.evaluate(() => window.__taperline.state.files.some((f) => f.name === 'km_units.tif'))).toBe(true);
+    page.once('dialog', (d) => void d.accept());
+    await Promise.all([page.waitForEvent('load'), page.click('#btn-clear')]);
+    await waitReady(page);
+    const files = await page.evaluate(() => window.__taperline.state.files.map((f) => f.name).sort());
+    expect(files).not.toContain('km_units.tif');
+    expect(files).toContain('top-basement.tif');
+    await expect(page.locator('#scenario').textContent()).resolves.toMatch(/invented/);
+    await page.close();
+  });
+
   it('never sends a request outside the page origin', () => {
     const origin = new URL(app.url).origin;
     const outside = p.requests.filter((u) => !u.startsWith(origin) && !u.startsWith('data:') && !u.startsWith('blob:'));

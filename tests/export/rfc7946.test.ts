@@ -92,6 +92,7 @@ describe('taperline demo outputs', () => {
       expect(info.geoTransform).toEqual([350_000, 500, 0, 6_225_000, 0, -500]);
       expect(info.coordinateSystem.wkt).toMatch(/ID\["EPSG",32709\]\]$/);
       expect(info.size).toEqual([600, 400]);
+      expect(info.metadata[''].TIFFTAG_SOFTWARE).toMatch(/^taperline /); // provenance
       if (f === 'domains.tif') {
         expect(info.bands[0].type).toBe('Byte');
         expect(info.bands[0].noDataValue).toBe(0);
