@@ -37,6 +37,7 @@ export interface Params {
   minBlockArea: number;
   pickReach: number;
   smoothCells: number;
+  simplifyTolerance: number;
 }
 
 export interface ParamSpec {
@@ -82,6 +83,7 @@ export const DEFAULT_PARAMS: Readonly<Params> = {
   minBlockArea: 0,
   pickReach: 5000,
   smoothCells: 0,
+  simplifyTolerance: 0,
 };
 
 export const PARAM_SPECS: readonly ParamSpec[] = [
@@ -143,6 +145,8 @@ export const PARAM_SPECS: readonly ParamSpec[] = [
     doc: 'Line pieces within this distance of a pick are labelled as placed by picks; farther ones by the proxy.', source: 'a choice: about the lateral resolution of one 2D section' },
   { key: 'smoothCells', label: 'Grid smoothing before contouring', unit: 'cells', group: 'lines', min: 0, max: 20,
     doc: 'Half-width of a NaN-aware box smoothing of the grid before lines are traced (0 = none).', source: 'user choice' },
+  { key: 'simplifyTolerance', label: 'Line simplification tolerance', unit: 'm', group: 'lines', min: 0, max: 10_000,
+    doc: 'Douglas–Peucker tolerance for exported lines and the COT polygon, applied so that shared borders stay shared (0 = every contour vertex).', source: 'user choice' },
 ];
 
 export class ParamError extends Error {

@@ -9,6 +9,7 @@ import { colToX, rowToY, type GridGeometry } from '../grid/geometry.js';
 import { lineCount, lineRange, traceLevel, type Lines } from '../contour/marching-squares.js';
 import type { Params } from '../params.js';
 import { sideField } from './fields.js';
+import { simplifyShared } from '../contour/simplify.js';
 import { clipLineToPolygon, distanceToControl, insideRings, type Ring } from './planar.js';
 
 export type BoundaryKind = 'crustal-taper-limit' | 'cot-zone' | 'oldest-onlapped-crust' | 'necking-line' | 'coupling-line';
@@ -99,6 +100,31 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
     return l;
   };
 
+  // COT zone: between the taper limit and the oceanic limit: {G_taper < 0 and G_ocean < 0}.
+  const cotField = (mask: Uint8Array | null) => {
+    const h = new Float32Array(nx * ny);
+    for (let k = 0; k < h.length; k++) {
+      h[k] = mask && !mask[k] ? NaN : Math.min(-gTaper[k], -gOcean[k]);
+    }
+    return h;
+  };
+  let cot = zonePolygons(traceLevel(grid(cotField(null)), 0, true), toMap);
+  let cotLicence = inp.licence ? zonePolygons(traceLevel(grid(cotField(inp.licenceMask)), 0, true), toMap) : [];
+
+  // Optional simplification, once for all lines and the COT rings together, so shared borders stay shared.
+  if (p.simplifyTolerance > 0) {
+    for (const f of [gTaper, gOnlap ?? gOcean, gNeck, gCoupling, gOcean]) lineOf(f);
+    const lineList: Ring[] = [];
+    const owner: [Float32Array, number][] = [];
+    traced.forEach((ls, f) => ls.forEach((l, i) => (lineList.push(l), owner.push([f, i]))));
+    const polys = [...cot, ...cotLicence];
+    const simp = simplifyShared(lineList, polys.flat(), p.simplifyTolerance);
+    owner.forEach(([f, i], k) => (traced.get(f)![i] = simp.lines[k]));
+    let q = 0;
+    const rebuilt = polys.map((rings) => rings.map(() => simp.rings[q++]));
+    cot = rebuilt.slice(0, cot.length);
+    cotLicence = rebuilt.slice(cot.length);
+  }
   const controlPoints = inp.picks.map((q) => [q.x, q.y] as [number, number]);
   const missing: BoundaryResult['missing'] = [];
   const notes: string[] = [];
@@ -170,15 +196,6 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
     }
   }
 
-  // COT zone: between the taper limit and the oceanic limit: {G_taper < 0 and G_ocean < 0}.
-  const cotField = (mask: Uint8Array | null) => {
-    const h = new Float32Array(nx * ny);
-    for (let k = 0; k < h.length; k++) {
-      h[k] = mask && !mask[k] ? NaN : Math.min(-gTaper[k], -gOcean[k]);
-    }
-    return h;
-  };
-  const cot = zonePolygons(traceLevel(grid(cotField(null)), 0, true), toMap);
   if (cot.length === 0) missing.push({ kind: 'cot-zone', reason: 'no continent–ocean transition zone: no cells lie between continental and oceanic crust' });
   const hasTaper = pieces.some((q) => q.kind === 'crustal-taper-limit');
   for (const rings of cot) {
@@ -203,7 +220,7 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
         inLicence.push({ kind: piece.kind, coords: [part], properties: { ...piece.properties, clipped_to_licence: true, closed: false } });
       }
     }
-    for (const rings of zonePolygons(traceLevel(grid(cotField(inp.licenceMask)), 0, true), toMap)) {
+    for (const rings of cotLicence) {
       inLicence.push({
         kind: 'cot-zone',
         coords: rings,

@@ -99,3 +99,35 @@ describe('geographic input grids', async () => {
     expect(worst).toBeLessThan(1000); // two resamplings (UTM → lon/lat → UTM) of 500–600 m cells
   });
 });
+
+describe('simplification keeps shared borders shared', async () => {
+  const plain = await runDemo();
+  const simple = await runDemo({}, { simplifyTolerance: 60 });
+  const keyOf = (p: P) => `${p[0]},${p[1]}`;
+  const ringOf = (r: typeof plain) => r.boundaries.pieces.find((q) => q.kind === 'cot-zone')!.coords.flat() as P[];
+
+  it('reduces vertices and keeps every original vertex within the tolerance', () => {
+    const before = plain.boundaries.support.taper.flat();
+    const after = simple.boundaries.support.taper;
+    expect(after.flat().length).toBeLessThan(before.length * 0.7);
+    for (const v of before) expect(distToPolylines(v as P, after as P[][])).toBeLessThanOrEqual(60 + 1e-6);
+  });
+
+  it('the COT polygon and the taper and oceanic limits still share exactly the same vertices', () => {
+    for (const line of ['taper', 'oceanic'] as const) {
+      const origLine = new Set(plain.boundaries.support[line].flat().map((v) => keyOf(v as P)));
+      const origRing = new Set(ringOf(plain).map(keyOf));
+      const ringOnLine = new Set(ringOf(simple).map(keyOf).filter((k) => origLine.has(k)));
+      const lineOnRing = new Set(simple.boundaries.support[line].flat().map((v) => keyOf(v as P)).filter((k) => origRing.has(k)));
+      expect(ringOnLine.size).toBeGreaterThan(50);
+      expect([...ringOnLine].sort()).toEqual([...lineOnRing].sort());
+    }
+  });
+
+  it('simplified lines still lie within one cell of the truth', () => {
+    const truth = truthLines(100)['crustal-taper-limit'] as P[];
+    const h = hausdorff(linesOf(simple.boundaries.pieces, 'crustal-taper-limit'), [truth]);
+    expect(h.ab).toBeLessThanOrEqual(CELL);
+    expect(h.ba).toBeLessThanOrEqual(CELL);
+  });
+});
