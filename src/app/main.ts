@@ -530,6 +530,12 @@ function renderFiles(): void {
             ...['auto', 'depth', 'elevation'].map((u) => h('option', { value: u, text: u, selected: (f.options.sign ?? 'auto') === u })))),
         ),
       );
+    }
+    if (f.kind === 'grid') {
+      // a CRS for files that carry none (XYZ text) or carry one Taperline cannot resolve
+      details.push(h('div', { class: 'overrides' }, h('label', {}, 'CRS ',
+        h('input', { class: 'crs-input', type: 'text', size: 16, placeholder: 'EPSG code or proj4', value: f.options.crs ?? '',
+          onchange: (e: Event) => override(f, 'crs', (e.target as HTMLInputElement).value.trim() || 'auto') }))));
     } else if (f.kind === 'vector' && !f.error) {
       details.push(h('div', { class: 'report', text: `${f.features ?? 0} features (GeoJSON, WGS84)` }), ...(f.warnings ?? []).map((w) => h('div', { class: 'warning', text: w })));
     }
@@ -605,6 +611,10 @@ async function addFile(name: string, bytes: ArrayBuffer, role?: string, options:
   const f: LoadedFile = { id: `f${nextId++}`, name, kind, role: r as LoadedFile['role'], bytes, options: { ...options }, report: null, error: null };
   state.files.push(f);
   await reload(f);
+  // values decide a role the name did not give: a surface deeper than 15 km on average is a Moho
+  if (!role && kind === 'grid' && guessRole(name) === 'other' && f.report && (f.report.min + f.report.max) / 2 > 15_000 && !state.files.some((o) => o !== f && o.role === 'moho')) {
+    f.role = 'moho';
+  }
   // one file per role: a file that loaded takes its role over; one that failed takes nothing
   if (!f.error && f.role !== 'none') for (const o of state.files) if (o !== f && o.role === f.role) o.role = 'none';
   if (!quiet) {
@@ -642,10 +652,20 @@ function setRole(f: LoadedFile, role: string): void {
   void reload(f).then(() => (renderFiles(), renderVectors(), scheduleRun(), autosave()));
 }
 
-function override(f: LoadedFile, key: 'units' | 'sign', value: string): void {
+function override(f: LoadedFile, key: 'units' | 'sign' | 'crs', value: string): void {
   if (value === 'auto') delete (f.options as Record<string, unknown>)[key];
   else (f.options as Record<string, unknown>)[key] = value;
-  void reload(f).then(() => (renderFiles(), scheduleRun(), autosave()));
+  void reload(f).then(() => {
+    // a file that now loads may take its role back
+    if (!f.error && f.role === 'none' && f.kind === 'grid') {
+      const g = guessRole(f.name);
+      if (g !== 'other' && !state.files.some((o) => o !== f && o.role === g && !o.error)) f.role = g;
+    }
+    renderFiles();
+    renderVectors();
+    scheduleRun();
+    autosave();
+  });
 }
 
 function removeFile(f: LoadedFile): void {

@@ -79,6 +79,21 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     await expect(card.textContent()).resolves.toMatch(/units km \(unit tag "km"\)/);
   });
 
+  it('loads XYZ text, assumes the analysis CRS with a warning, and takes a CRS typed by the user', async () => {
+    const lines = ['x y z'];
+    for (let j = 0; j < 4; j++) for (let i = 0; i < 5; i++) lines.push(`${480000 + i * 1000} ${6100000 + j * 1000} ${-(2500 + 10 * i + j)}`);
+    await p.page.setInputFiles('#file-input', { name: 'extra_horizon.xyz', mimeType: 'text/plain', buffer: Buffer.from(lines.join('\n')) });
+    const card = p.page.locator('.file[data-name="extra_horizon.xyz"]');
+    await card.locator('.report').first().waitFor();
+    await expect(card.textContent()).resolves.toMatch(/5 × 4 cells of 1,000\.0 m/);
+    await expect(card.textContent()).resolves.toMatch(/assumed EPSG:32709, please confirm/);
+    await expect(card.textContent()).resolves.toMatch(/elevation/);
+    await card.locator('.crs-input').fill('EPSG:32709');
+    await card.locator('.crs-input').dispatchEvent('change');
+    await expect.poll(async () => (await card.textContent()) ?? '').not.toMatch(/assumed EPSG/);
+    await card.locator('button.x').click(); // remove it again
+  });
+
   it('shows a clear error for a corrupt file and keeps everything already loaded', async () => {
     const runs = await p.page.evaluate(() => window.__taperline.runs);
     const corrupt = Buffer.concat([Buffer.from([0x49, 0x49, 42, 0, 8, 0, 0, 0]), Buffer.alloc(64, 0xee)]);
