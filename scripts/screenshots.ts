@@ -19,7 +19,7 @@ try {
   await page.waitForTimeout(400);
   const pt = await page.evaluate(() => {
     const fc = window.__taperline.state.result!.boundaries as { features: { properties: { kind: string; evidence: string }; geometry: { coordinates: number[][] } }[] };
-    const f = fc.features.find((q) => q.properties.kind === 'crustal-taper-limit' && q.properties.evidence === 'picks')!;
+    const f = fc.features.find((q) => q.properties.kind === 'crustal-taper-limit' && q.properties.evidence === 'proxy')!;
     const c = f.geometry.coordinates[Math.floor(f.geometry.coordinates.length / 2)];
     const s = window.__taperline.map.project([c[0], c[1]]);
     const r = window.__taperline.map.getContainer().getBoundingClientRect();

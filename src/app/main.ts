@@ -334,15 +334,20 @@ map.on('click', (e: MapMouseEvent) => {
     showDrawn();
     return;
   }
-  const lineHits = map.queryRenderedFeatures(e.point, { layers: ['proposals', 'seismic'].filter((id) => map.getLayer(id)) });
-  if (lineHits.length) {
-    const f = lineHits[0];
-    const coords = (f.geometry as GeoJSON.LineString).coordinates as [number, number][];
-    const name = String(f.properties?.id ?? f.properties?.name ?? 'line');
-    void openSection(coords, f.layer.id === 'proposals' ? `Proposed line ${name}` : `Existing line ${name}`);
-    return;
+  // priority: a boundary line, then a seismic line (its section), then the COT zone fill
+  const on = (ids: string[]) => map.queryRenderedFeatures(e.point, { layers: ids.filter((id) => map.getLayer(id)) });
+  let hits = on(BOUNDARY_STYLES.map((st) => `b-${st.kind}`));
+  if (!hits.length) {
+    const lineHits = on(['proposals', 'seismic']);
+    if (lineHits.length) {
+      const f = lineHits[0];
+      const coords = (f.geometry as GeoJSON.LineString).coordinates as [number, number][];
+      const name = String(f.properties?.id ?? f.properties?.name ?? 'line');
+      void openSection(coords, f.layer.id === 'proposals' ? `Proposed line ${name}` : `Existing line ${name}`);
+      return;
+    }
+    hits = on(['cot-zone']);
   }
-  const hits = map.queryRenderedFeatures(e.point, { layers: clickable.filter((id) => map.getLayer(id)) });
   if (!hits.length) return;
   const p = hits[0].properties as Record<string, unknown>;
   const table = h('table', { class: 'props' }, ...Object.entries(p).map(([k, v]) => h('tr', {}, h('th', { text: k.replace(/_/g, ' ') }), h('td', { text: typeof v === 'object' ? JSON.stringify(v) : String(v) }))));
