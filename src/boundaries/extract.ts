@@ -9,7 +9,7 @@ import { colToX, rowToY, type GridGeometry } from '../grid/geometry.js';
 import { lineCount, lineRange, traceLevel, type Lines } from '../contour/marching-squares.js';
 import type { Params } from '../params.js';
 import { sideField } from './fields.js';
-import { simplifyShared } from '../contour/simplify.js';
+import { simplifyShared } from './simplify.js';
 import { clipLineToPolygon, distanceToControl, insideRings, type Ring } from './planar.js';
 
 export type BoundaryKind = 'crustal-taper-limit' | 'cot-zone' | 'oldest-onlapped-crust' | 'necking-line' | 'coupling-line';

@@ -90,24 +90,29 @@ export function signedArea(ring: Ring): number {
   return s / 2;
 }
 
-/** Douglas–Peucker simplification (iterative), keeping the end points; tolerance in map units. */
-export function simplifyPath(path: Ring, tolerance: number): Ring {
-  if (path.length <= 2) return path.slice();
-  const keep = new Uint8Array(path.length);
-  keep[0] = keep[path.length - 1] = 1;
-  const stack: [number, number][] = [[0, path.length - 1]];
+/** Douglas–Peucker keep-flags over path[a..b] (iterative), with a and b kept; tolerance in map units. */
+export function douglasPeuckerMark(path: Ring, a: number, b: number, tolerance: number, keep: Uint8Array): void {
+  keep[a] = keep[b] = 1;
+  const stack: [number, number][] = [[a, b]];
   while (stack.length) {
-    const [a, b] = stack.pop()!;
+    const [s, e] = stack.pop()!;
     let worst = -1;
     let at = -1;
-    for (let k = a + 1; k < b; k++) {
-      const d = pointSegmentDistance(path[k][0], path[k][1], path[a][0], path[a][1], path[b][0], path[b][1]);
+    for (let k = s + 1; k < e; k++) {
+      const d = pointSegmentDistance(path[k][0], path[k][1], path[s][0], path[s][1], path[e][0], path[e][1]);
       if (d > worst) (worst = d), (at = k);
     }
     if (worst > tolerance) {
       keep[at] = 1;
-      stack.push([a, at], [at, b]);
+      stack.push([s, at], [at, e]);
     }
   }
+}
+
+/** Douglas–Peucker simplification of a path, keeping its end points. */
+export function simplifyPath(path: Ring, tolerance: number): Ring {
+  if (path.length <= 2) return path.slice();
+  const keep = new Uint8Array(path.length);
+  douglasPeuckerMark(path, 0, path.length - 1, tolerance, keep);
   return path.filter((_, k) => keep[k]);
 }

@@ -10,28 +10,11 @@
  * Every output vertex is an input vertex; no vertex moves more than `tolerance` from its original path.
  */
 
-import { pointSegmentDistance, type Ring } from '../boundaries/planar.js';
+import { douglasPeuckerMark, type Ring } from './planar.js';
 
 const key = (p: [number, number]) => `${p[0]},${p[1]}`;
 
-/** Douglas–Peucker keep-flags over path[a..b], with a and b kept. */
-function dpMark(path: Ring, a: number, b: number, tol: number, keep: Uint8Array): void {
-  keep[a] = keep[b] = 1;
-  const stack: [number, number][] = [[a, b]];
-  while (stack.length) {
-    const [s, e] = stack.pop()!;
-    let worst = -1;
-    let at = -1;
-    for (let k = s + 1; k < e; k++) {
-      const d = pointSegmentDistance(path[k][0], path[k][1], path[s][0], path[s][1], path[e][0], path[e][1]);
-      if (d > worst) (worst = d), (at = k);
-    }
-    if (worst > tol) {
-      keep[at] = 1;
-      stack.push([s, at], [at, e]);
-    }
-  }
-}
+const dpMark = douglasPeuckerMark;
 
 export function simplifyShared(lines: Ring[], rings: Ring[], tolerance: number): { lines: Ring[]; rings: Ring[] } {
   if (!(tolerance > 0)) return { lines, rings };
