@@ -6,11 +6,11 @@
  */
 
 import { colToX, rowToY, type GridGeometry } from '../grid/geometry.js';
-import { lineCount, lineRange, traceLevel, type Lines } from '../contour/marching-squares.js';
+import { lineCount, lineRange, ringArea, traceLevel, type Lines } from '../contour/marching-squares.js';
 import type { Params } from '../params.js';
 import { sideField } from './fields.js';
 import { simplifyShared } from './simplify.js';
-import { clipLineToPolygon, distanceToControl, insideRings, type Ring } from './planar.js';
+import { clipLineToPolygon, distanceToControl, insideRings, signedArea, type Ring } from './planar.js';
 
 export type BoundaryKind = 'crustal-taper-limit' | 'cot-zone' | 'oldest-onlapped-crust' | 'necking-line' | 'coupling-line';
 
@@ -317,20 +317,9 @@ function ageProperties(coords: Ring, g: GridGeometry, oldest: Isochron | null, a
 /** Filled rings → polygons (outer ring + holes) in map coordinates. */
 function zonePolygons(l: Lines, toMap: (l: Lines) => Ring[]): Ring[][] {
   const rings = toMap(l);
-  // In index space outer rings have positive shoelace area (y-down); map transform may flip y.
-  const area = (r: Ring) => {
-    let s = 0;
-    for (let k = 0; k < r.length - 1; k++) s += r[k][0] * r[k + 1][1] - r[k + 1][0] * r[k][1];
-    return s / 2;
-  };
-  const indexAreas: number[] = [];
-  for (let k = 0; k < lineCount(l); k++) {
-    const [b, e] = lineRange(l, k);
-    let s = 0;
-    for (let q = b; q < e - 1; q++) s += l.positions[2 * q] * l.positions[2 * q + 3] - l.positions[2 * q + 2] * l.positions[2 * q + 1];
-    indexAreas.push(s / 2);
-  }
-  const outers = rings.map((r, k) => ({ r, a: indexAreas[k] })).filter((o) => o.a > 0).map((o) => ({ ring: o.r, size: Math.abs(area(o.r)), holes: [] as Ring[] }));
+  // In index space outer rings have positive shoelace area (y-down); the map transform may flip y.
+  const indexAreas = rings.map((_, k) => ringArea(l, k));
+  const outers = rings.map((r, k) => ({ r, a: indexAreas[k] })).filter((o) => o.a > 0).map((o) => ({ ring: o.r, size: Math.abs(signedArea(o.r)), holes: [] as Ring[] }));
   outers.sort((a, b) => a.size - b.size);
   rings.forEach((r, k) => {
     if (indexAreas[k] >= 0) return;

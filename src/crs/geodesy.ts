@@ -42,13 +42,3 @@ export function ringSignedArea(lonlat: ArrayLike<number>): number {
   return r.area as number;
 }
 
-/** Area of a GeoJSON polygon's rings (outer minus holes), m². */
-export function geodesicPolygonArea(rings: number[][][]): number {
-  let a = 0;
-  rings.forEach((ring, idx) => {
-    const flat = ring.flatMap((c) => [c[0], c[1]]);
-    const area = geodesicRingArea(flat);
-    a += idx === 0 ? area : -area;
-  });
-  return a;
-}

@@ -37,14 +37,3 @@ export function transformer(from: Crs, to: Crs): Transformer {
   return t;
 }
 
-/** Transform a flat [x0, y0, x1, y1, ...] array in place-free fashion into a new Float64Array. */
-export function transformFlat(from: Crs, to: Crs, xy: ArrayLike<number>): Float64Array {
-  const t = transformer(from, to);
-  const out = new Float64Array(xy.length);
-  for (let k = 0; k < xy.length; k += 2) {
-    const p = t.forward([xy[k], xy[k + 1]]);
-    out[k] = p[0];
-    out[k + 1] = p[1];
-  }
-  return out;
-}

@@ -66,15 +66,3 @@ export function quantile(values: ArrayLike<number>, q: number): number {
   return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
 }
 
-/** Fraction of finite values that are < 0. */
-export function negativeFraction(values: ArrayLike<number>): number {
-  let n = 0;
-  let neg = 0;
-  for (let k = 0; k < values.length; k++) {
-    const v = values[k];
-    if (!Number.isFinite(v)) continue;
-    n++;
-    if (v < 0) neg++;
-  }
-  return n ? neg / n : NaN;
-}
