@@ -29,13 +29,19 @@ export interface Params {
   mohoTolerance: number;
   basementTolerance: number;
   taperThreshold: number;
+  oceanicThreshold: number;
   couplingThickness: number;
   neckingFraction: number;
   oceanicMin: number;
   oceanicMax: number;
   oceanwardAzimuth: number | null;
   minBlockArea: number;
+  minBlockCells: number;
+  tc0WarnFraction: number;
   pickReach: number;
+  farFromControl: number;
+  pickTrendTolerance: number;
+  pickProxyDistance: number;
   smoothCells: number;
   simplifyTolerance: number;
 }
@@ -75,13 +81,19 @@ export const DEFAULT_PARAMS: Readonly<Params> = {
   mohoTolerance: 500,
   basementTolerance: 50,
   taperThreshold: 2000,
+  oceanicThreshold: 4000,
   couplingThickness: 10_000,
   neckingFraction: 0.8,
   oceanicMin: 5000,
   oceanicMax: 9000,
   oceanwardAzimuth: null,
   minBlockArea: 0,
+  minBlockCells: 9,
+  tc0WarnFraction: 0.05,
   pickReach: 5000,
+  farFromControl: 25_000,
+  pickTrendTolerance: 1500,
+  pickProxyDistance: 10_000,
   smoothCells: 0,
   simplifyTolerance: 0,
 };
@@ -128,7 +140,10 @@ export const PARAM_SPECS: readonly ParamSpec[] = [
   { key: 'basementTolerance', label: 'Basement-above-seabed tolerance', unit: 'm', group: 'picks', min: 0, max: 1000,
     doc: 'Basement above seabed by less than this is outcropping basement (no sediment); by more, a pick error.', source: 'a choice above typical pick noise' },
   { key: 'taperThreshold', label: 'Crustal taper threshold', unit: 'm', group: 'domains', min: 0, max: 10_000,
-    doc: 'Crust thinner than this is no longer counted as continental (crustal taper limit).', source: 'a choice above typical pick noise, not a published constant' },
+    doc: 'Crust thinner than this is no longer counted as continental: places the crustal taper limit (where no continental-limit picks calibrate it).', source: 'a choice above typical pick noise, not a published constant' },
+  { key: 'oceanicThreshold', label: 'Oceanic-crust threshold', unit: 'm', group: 'domains', min: 0, max: 20_000,
+    doc: 'Crust at least this thick, connected to the oceanward edge, is oceanic: places the landward limit of oceanic crust (where no oceanic-limit picks calibrate it). Thinner crust between it and the taper limit is the COT zone.',
+    source: 'a choice: thin first oceanic crust at magma-poor margins lies below the 6–7 km of normal oceanic crust (White et al. 1992: 7.1 ± 0.8 km), so the threshold sits below the typical range, yet well above the taper threshold so that exhumed mantle (whose serpentinisation base reads as a few km of “crust”) stays in the transition' },
   { key: 'couplingThickness', label: 'Coupling thickness', unit: 'm', group: 'domains', min: 1000, max: 30_000,
     doc: 'Thickness below which the whole crust is brittle (coupling line; necking/hyperextended limit).', source: 'Sutra et al. 2013 (~10 km), from memory' },
   { key: 'neckingFraction', label: 'Necking limit (fraction of tc0)', unit: '', group: 'domains', min: 0.3, max: 1,
@@ -140,9 +155,19 @@ export const PARAM_SPECS: readonly ParamSpec[] = [
   { key: 'oceanwardAzimuth', label: 'Oceanward azimuth', unit: '° from grid north', group: 'domains', min: 0, max: 360, nullable: true,
     doc: 'Direction towards the ocean; empty = from a plane fit of water-loaded basement depth.', source: 'user input, or plane fit' },
   { key: 'minBlockArea', label: 'Minimum mapped continental block', unit: 'km²', group: 'domains', min: 0, max: 1e6,
-    doc: 'Isolated continental blocks larger than this are kept and labelled; smaller ones join the transition.', source: 'user choice (0 = keep all)' },
+    doc: 'Isolated continental blocks smaller than this (or than the minimum block cells) are not mapped as blocks: like thin cells, they take the domain of what encloses them (oceanic inside oceanic crust, else transition).', source: 'user choice (0 = only the cell-count limit applies)' },
+  { key: 'minBlockCells', label: 'Minimum mapped block, cells', unit: 'cells', group: 'domains', min: 1, max: 1e6,
+    doc: 'An isolated continental block must span at least this many analysis cells to be mapped.', source: 'a choice: 9 cells (3 × 3) — a smaller thick spot is not resolved by the grid and is more likely pick noise than a block' },
+  { key: 'tc0WarnFraction', label: 'tc0 suggestion warning', unit: 'fraction', group: 'crust', min: 0, max: 1,
+    doc: 'Warn when the data-based tc0 suggestion (95th percentile of crustal thickness) differs from tc0 by more than this fraction of tc0.', source: 'a choice: 5 % (1.75 km of 35 km) changes proximal β by 0.05' },
   { key: 'pickReach', label: 'Reach of a pick', unit: 'm', group: 'lines', min: 0, max: 100_000,
     doc: 'Line pieces within this distance of a pick are labelled as placed by picks; farther ones by the proxy.', source: 'a choice: about the lateral resolution of one 2D section' },
+  { key: 'farFromControl', label: 'Far from control', unit: 'm', group: 'lines', min: 0, max: 500_000,
+    doc: 'Proxy line pieces farther than this from every pick and seismic line are marked far from control (drawn dotted).', source: 'a choice: about the spacing of a regional 2D grid; beyond it a line is unconstrained interpolation' },
+  { key: 'pickTrendTolerance', label: 'Suspect pick: thickness departure', unit: 'm', group: 'picks', min: 0, max: 50_000,
+    doc: 'A pick whose crustal thickness departs from the along-strike trend of the other picks of its kind by more than this is flagged as suspect.', source: 'a choice: well above the ±0.5 km depth-conversion noise of a Moho pick (from memory)' },
+  { key: 'pickProxyDistance', label: 'Suspect pick: distance from proxy', unit: 'm', group: 'picks', min: 0, max: 500_000,
+    doc: 'A pick farther than this from the uncalibrated proxy line of its kind is flagged as suspect.', source: 'a choice: twice the reach of a pick' },
   { key: 'smoothCells', label: 'Grid smoothing before contouring', unit: 'cells', group: 'lines', min: 0, max: 20,
     doc: 'Half-width of a NaN-aware box smoothing of the grid before lines are traced (0 = none).', source: 'user choice' },
   { key: 'simplifyTolerance', label: 'Line simplification tolerance', unit: 'm', group: 'lines', min: 0, max: 10_000,

@@ -7,14 +7,19 @@ import { crsFromEpsg, WGS84 } from './crs/registry.js';
 import { transformer } from './crs/transform.js';
 import { densify } from './crs/densify.js';
 import { cellAreas, rasterizeRings } from './grid/cell-area.js';
-import { extentOf, sameGeometry, type GridGeometry } from './grid/geometry.js';
+import { extentOf, sameGeometry, xToCol, yToRow, type GridGeometry } from './grid/geometry.js';
 import type { Grid } from './grid/grid.js';
-import { resample } from './grid/resample.js';
+import { resample, sampleBilinear } from './grid/resample.js';
 import { derive, type Derived } from './derive/derive.js';
-import { classify, FORCE_CONTINENTAL, FORCE_OCEANIC, FORCE_TRANSITION, type Classified } from './domains/classify.js';
+import { classify, FORCE_CONTINENTAL, FORCE_OCEANIC, FORCE_TRANSITION, isContinentalDomain, type Classified } from './domains/classify.js';
+import { applyDomains, type Applied } from './derive/applicability.js';
+import { nearestIsochronAge } from './derive/isochron-age.js';
+import type { DerivedName } from './derive/grids.js';
+import { checkPicks, type PickCheck } from './boundaries/pick-checks.js';
+import { onlapOffset, strikeOf } from './boundaries/onlap.js';
 import { oceanwardFromAzimuth, oceanwardFromDepth, type Oceanward } from './domains/direction.js';
 import { calibrateThreshold, type Calibration } from './boundaries/calibrate.js';
-import { extractBoundaries, type BoundaryResult, type Isochron, type Pick } from './boundaries/extract.js';
+import { extractBoundaries, traceSideLine, type BoundaryResult, type Isochron, type Pick } from './boundaries/extract.js';
 import { simplifyPath, type Ring } from './boundaries/planar.js';
 import { smoothGrid } from './boundaries/smooth.js';
 import { InputError } from './io/errors.js';
@@ -53,11 +58,14 @@ export interface PipelineOptions {
   readonly onProgress?: (stage: string, fraction: number) => void;
   /** Reuse of the derived grids between runs, owned by the caller (see createPipelineCache). */
   readonly cache?: PipelineCache;
+  /** Ids of picks the user excluded: shown and checked, never used to place a line or as control. */
+  readonly excludePicks?: readonly string[];
 }
 
 /** Parameters that only affect domains and lines: changing them does not recompute the derived grids. */
 const LINE_ONLY: readonly (keyof Params)[] = [
-  'taperThreshold', 'couplingThickness', 'neckingFraction', 'oceanicMin', 'oceanicMax', 'oceanwardAzimuth', 'minBlockArea', 'pickReach', 'smoothCells',
+  'taperThreshold', 'oceanicThreshold', 'couplingThickness', 'neckingFraction', 'oceanicMin', 'oceanicMax', 'oceanwardAzimuth', 'minBlockArea',
+  'minBlockCells', 'tc0WarnFraction', 'pickReach', 'farFromControl', 'pickTrendTolerance', 'pickProxyDistance', 'smoothCells', 'simplifyTolerance',
 ];
 
 export interface PipelineCache {
@@ -84,14 +92,22 @@ export interface DomainArea {
 export interface PipelineResult {
   readonly params: Params;
   readonly geometry: GridGeometry;
+  /** Raw derived grids (every model over every cell; may hold ±∞): for reuse, never for display. */
   readonly derived: Derived;
+  /** The derived grids as shown and exported: each masked to the domains where its model applies, no ±∞. */
+  readonly grids: Record<DerivedName, Float32Array>;
+  readonly applied: Applied;
   readonly classified: Classified;
+  /** Consistency checks of every pick (excluded ones included). */
+  readonly pickChecks: PickCheck[];
+  /** Which parameter or which picks placed each thickness line, in words. */
+  readonly placedBy: { taper: string; oceanic: string };
   readonly oceanward: Oceanward;
-  readonly calibration: { taper: Calibration | null; ocean: Calibration | null; onlap: Calibration | null };
+  readonly calibration: { taper: Calibration | null; ocean: Calibration | null };
   readonly boundaries: BoundaryResult;
   readonly areas: { readonly total: DomainArea[]; readonly inLicence: DomainArea[] | null };
   readonly licenceName: string | null;
-  /** Vector evidence in the analysis CRS, for display and sections. */
+  /** Vector evidence in the analysis CRS, for display and sections (picks include excluded ones, marked). */
   readonly evidence: { picks: Pick[]; lines: { name: string; coords: Ring[] }[]; isochrons: Isochron[]; licence: Ring[] | null };
   readonly inputs: PipelineInputs;
   /** The depth grids on the analysis grid (resampled where needed), metres positive down. */
@@ -170,8 +186,12 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   }
   warnings.push(...derived.warnings);
   if (reuse) for (const w of reuse.warnings) if (!warnings.includes(w)) warnings.push(w);
-  if (Number.isFinite(derived.suggestedTc0) && Math.abs(derived.suggestedTc0 - params.tc0) > 3000) {
-    warnings.push(`the data suggest a reference thickness near ${(derived.suggestedTc0 / 1000).toFixed(1)} km (95th percentile of crustal thickness); tc0 = ${params.tc0 / 1000} km is in use (not changed)`);
+  if (Number.isFinite(derived.suggestedTc0) && Math.abs(derived.suggestedTc0 - params.tc0) > params.tc0WarnFraction * params.tc0) {
+    warnings.push(
+      `reference thickness: the data suggest tc0 ≈ ${(derived.suggestedTc0 / 1000).toFixed(2)} km (95th percentile of crustal thickness over the grid) ` +
+        `while tc0 = ${(params.tc0 / 1000).toFixed(2)} km is in use, a difference of ${((100 * Math.abs(derived.suggestedTc0 - params.tc0)) / params.tc0).toFixed(1)} % ` +
+        `(warning above ${(100 * params.tc0WarnFraction).toFixed(0)} %); tc0 was not changed — β, γ and the McKenzie grids depend on it`,
+    );
   }
 
   progress('oceanward direction', 0.45);
@@ -204,12 +224,11 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   const isoIn = check(inputs.isochrons, 'isochrons');
   const crustIn = check(inputs.crust, 'crust');
   const licence = licenceIn ? licenceIn.set.features.flatMap((f) => f.parts.map((r) => toMap(licenceIn, r))) : null;
-  const picks: Pick[] = picksIn
-    ? picksIn.set.features.map((f) => {
-        const [x, y] = toMap(picksIn, f.parts[0])[0];
-        return { x, y, kind: f.properties.kind as Pick['kind'], line: f.properties.line !== undefined ? String(f.properties.line) : undefined };
-      })
-    : [];
+  const excluded = new Set(options.excludePicks ?? []);
+  const allPicks = picksIn ? pickIdentities(picksIn, (r) => toMap(picksIn, r)[0], excluded) : [];
+  for (const id of excluded) if (!allPicks.some((q) => q.id === id)) warnings.push(`excluded pick "${id}" is not in the picks file: nothing excluded for it`);
+  const picks = allPicks.filter((q) => !q.excluded);
+  if (picks.length < allPicks.length) warnings.push(`${allPicks.length - picks.length} pick${allPicks.length - picks.length > 1 ? 's' : ''} excluded by the user: ${allPicks.filter((q) => q.excluded).map((q) => q.id).join(', ')}`);
   const lines = linesIn ? linesIn.set.features.map((f, k) => ({ name: String(f.properties.name ?? `line ${k + 1}`), coords: f.parts.map((r) => toMap(linesIn, r)) })) : [];
   const isochrons: Isochron[] = isoIn
     ? isoIn.set.features.map((f) => ({ coords: toMap(isoIn, f.parts[0]), age: Number(f.properties.age_ma), label: f.properties.label as string | undefined }))
@@ -223,11 +242,20 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     if (!sel.length) return null;
     const c = calibrateThreshold(geometry, tc, sel, oceanward, fallback);
     for (const s of c.skipped) warnings.push(`${kind} pick${s.line ? ` on ${s.line}` : ''} at (${s.x.toFixed(0)}, ${s.y.toFixed(0)}) not used: ${s.reason}`);
-    return c;
+    return c.points.length ? c : null;
   };
+  // Each thickness line has its own threshold: the taper threshold places the crustal taper limit,
+  // the oceanic-crust threshold the landward limit of oceanic crust; picks of each kind calibrate
+  // only their own line.
   const calTaper = calibrate('continental-limit', params.taperThreshold);
-  const calOcean = calibrate('oceanic-limit', params.taperThreshold);
-  const calOnlap = calibrate('onlap', params.taperThreshold);
+  const calOcean = calibrate('oceanic-limit', params.oceanicThreshold);
+  const placedBy = {
+    taper: calTaper ? `calibrated to ${calTaper.points.length} continental-limit pick${calTaper.points.length > 1 ? 's' : ''} (crustal thickness at each pick, interpolated along strike; taperThreshold not used)` : `parameter taperThreshold = ${params.taperThreshold} m`,
+    oceanic: calOcean ? `calibrated to ${calOcean.points.length} oceanic-limit pick${calOcean.points.length > 1 ? 's' : ''} (crustal thickness at each pick, interpolated along strike; oceanicThreshold not used)` : `parameter oceanicThreshold = ${params.oceanicThreshold} m`,
+  };
+  if (params.taperThreshold > params.oceanicThreshold) {
+    warnings.push(`the taper threshold (${params.taperThreshold} m) is above the oceanic-crust threshold (${params.oceanicThreshold} m): crust between them counts as both; the COT zone may vanish`);
+  }
 
   let force: Uint8Array | undefined;
   if (crustIn) {
@@ -249,36 +277,46 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   let meanCell = 0;
   for (let k = 0; k < n; k++) meanCell += areasPerCell[k];
   meanCell /= n;
-  const classified = classify({
-    geometry,
-    thickness: tc,
-    valid,
-    taperLevel: calTaper?.field ?? params.taperThreshold,
-    oceanLevel: calOcean?.field ?? params.taperThreshold,
-    oceanward,
-    tc0: params.tc0,
-    neckingFraction: params.neckingFraction,
-    couplingThickness: params.couplingThickness,
-    oceanicMin: params.oceanicMin,
-    oceanicMax: params.oceanicMax,
-    minBlockArea: params.minBlockArea,
-    cellAreaKm2: meanCell / 1e6,
-    force,
-  });
+  const classifyAt = (taperLevel: Float32Array | number, oceanLevel: Float32Array | number) =>
+    classify({
+      geometry,
+      thickness: tc,
+      valid,
+      taperLevel,
+      oceanLevel,
+      oceanward,
+      tc0: params.tc0,
+      neckingFraction: params.neckingFraction,
+      couplingThickness: params.couplingThickness,
+      oceanicMin: params.oceanicMin,
+      oceanicMax: params.oceanicMax,
+      minBlockArea: params.minBlockArea,
+      minBlockCells: params.minBlockCells,
+      cellAreaKm2: meanCell / 1e6,
+      force,
+    });
+  const taperLevel = calTaper?.field ?? params.taperThreshold;
+  const oceanLevel = calOcean?.field ?? params.oceanicThreshold;
+  const classified = classifyAt(taperLevel, oceanLevel);
   warnings.push(...classified.warnings);
+
+  // The grids as shown and exported: each model only where it applies.
+  const isoAge = isochrons.length && seabed ? nearestIsochronAge(geometry, isochrons) : null;
+  const applied = applyDomains(derived, classified.domains, params, isoAge);
+  warnings.push(...applied.warnings);
 
   progress('areas', 0.7);
   const licenceMask = licence ? rasterizeRings(geometry, licence) : null;
   const tally = (mask: Uint8Array | null): DomainArea[] => {
-    const cells = new Float64Array(6);
-    const m2 = new Float64Array(6);
+    const cells = new Float64Array(7);
+    const m2 = new Float64Array(7);
     for (let k = 0; k < n; k++) {
       if (mask && !mask[k]) continue;
       const d = classified.domains[k];
       cells[d]++;
       m2[d] += areasPerCell[k];
     }
-    return [0, 1, 2, 3, 4, 5].map((code) => ({ code, cells: cells[code], km2: m2[code] / 1e6 }));
+    return [0, 1, 2, 3, 4, 5, 6].map((code) => ({ code, cells: cells[code], km2: m2[code] / 1e6 }));
   };
   const areas = { total: tally(null), inLicence: licenceMask ? tally(licenceMask) : null };
   if (licence && licenceMask && !licenceMask.some((v) => v)) warnings.push(`${inputs.licence!.name}: the licence polygon does not overlap the analysis grid`);
@@ -288,9 +326,11 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     geometry,
     thickness: tc,
     domains: classified.domains,
-    taperLevel: calTaper?.field ?? params.taperThreshold,
-    oceanLevel: calOcean?.field ?? params.taperThreshold,
-    onlapLevel: calOnlap?.field ?? null,
+    oceanward,
+    taperLevel,
+    oceanLevel,
+    taperSource: placedBy.taper,
+    oceanSource: placedBy.oceanic,
     params,
     picks,
     // control lines and the licence are only measured against: 1 m simplification keeps them exact enough and fast
@@ -298,24 +338,83 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     isochrons,
     licence: licence ? licence.map((r) => simplifyPath(r, 1)) : null,
     licenceMask,
-    oceanicAgeMin: seabed ? derived.grids['oceanic-age-min'] : null,
-    oceanicAgeMax: seabed ? derived.grids['oceanic-age-max'] : null,
+    oceanicAgeMin: seabed ? applied.grids['oceanic-age-min'] : null,
+    oceanicAgeMax: seabed ? applied.grids['oceanic-age-max'] : null,
   });
   for (const m of boundaries.missing) warnings.push(m.reason);
+  for (const s of boundaries.onlap.skipped) warnings.push(`onlap pick ${s.id} not used: ${s.reason}`);
+
+  progress('pick checks', 0.9);
+  const pickChecks = allPicks.length ? checkAllPicks() : [];
+  function checkAllPicks(): PickCheck[] {
+    // the uncalibrated proxy lines: the same rules at the parameter thresholds, no picks
+    const hasLimitPicks = allPicks.some((q) => q.kind !== 'onlap');
+    const proxyDomains = hasLimitPicks ? (calTaper || calOcean ? classifyAt(params.taperThreshold, params.oceanicThreshold).domains : classified.domains) : null;
+    const proxy = proxyDomains
+      ? {
+          taper: traceSideLine(geometry, tc, (k) => isContinentalDomain(proxyDomains[k]), params.taperThreshold),
+          oceanic: traceSideLine(geometry, tc, (k) => proxyDomains[k] === 5, params.oceanicThreshold),
+        }
+      : { taper: [], oceanic: [] };
+    const grid = { geometry, values: tc };
+    const reach = Math.hypot(geometry.nx * geometry.dx, geometry.ny * geometry.dy);
+    return checkPicks(
+      allPicks.map((q) => ({
+        id: q.id,
+        kind: q.kind,
+        line: q.line,
+        x: q.x,
+        y: q.y,
+        excluded: Boolean(q.excluded),
+        thickness: sampleBilinear(grid, xToCol(geometry, q.x), yToRow(geometry, q.y)),
+        offset: q.kind === 'onlap' ? onlapOffset(q.x, q.y, boundaries.support.oceanic, oceanward, reach) : NaN,
+        strike: strikeOf(oceanward, q.x, q.y),
+      })),
+      proxy,
+      params,
+    );
+  }
+  const suspects = pickChecks.filter((c) => c.suspect && !c.excluded);
+  if (suspects.length) {
+    warnings.push(`${suspects.length} suspect pick${suspects.length > 1 ? 's' : ''} (disagree with their neighbours or lie far from the proxy line): ${suspects.map((c) => `${c.id} — ${c.reasons.join('; ')}`).join(' | ')}. Check them on the seismic; exclude one to see the lines without it`);
+  }
   progress('done', 1);
   return {
     params,
     geometry,
     derived,
+    grids: applied.grids,
+    applied,
     classified,
+    pickChecks,
+    placedBy,
     oceanward,
-    calibration: { taper: calTaper, ocean: calOcean, onlap: calOnlap },
+    calibration: { taper: calTaper, ocean: calOcean },
     boundaries,
     areas,
     licenceName: licenceIn ? String(licenceIn.set.features[0]?.properties.name ?? licenceIn.name) : null,
-    evidence: { picks, lines, isochrons, licence },
+    evidence: { picks: allPicks, lines, isochrons, licence },
     inputs,
     analysis: { seabed, basement: basementValues, moho },
     warnings,
   };
+}
+
+/**
+ * Picks with a stable identity (the feature's `id` property, else "line/kind", else "pick N" by
+ * position in the file; repeats get "#2", "#3"), in the analysis CRS.
+ */
+function pickIdentities(v: VectorInput, at: (r: [number, number][]) => [number, number], excluded: Set<string>): Pick[] {
+  const seen = new Map<string, number>();
+  return v.set.features.map((f, k) => {
+    const [x, y] = at(f.parts[0]);
+    const kind = f.properties.kind as Pick['kind'];
+    const line = f.properties.line !== undefined && f.properties.line !== null ? String(f.properties.line) : undefined;
+    const given = f.properties.id;
+    let id = typeof given === 'string' || typeof given === 'number' ? String(given) : line ? `${line}/${kind}` : `pick ${k + 1}`;
+    const n = (seen.get(id) ?? 0) + 1;
+    seen.set(id, n);
+    if (n > 1) id = `${id}#${n}`;
+    return { x, y, kind, line, id, excluded: excluded.has(id) };
+  });
 }

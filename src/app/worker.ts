@@ -85,8 +85,8 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
           const regional = boundariesGeoJson(r, 'regional');
           const s = runSummary(r, { version: '', time: '', tool: 'app' }, r.boundaries.inLicence ? undefined : regional) as Record<string, unknown>;
           const gridsOut: Record<string, Float32Array> = {};
-          // shown as exported: β, γ and β-from-subsidence masked over oceanic crust, ages outside it
-          for (const name of Object.keys(r.derived.grids)) gridsOut[name] = exportValues(r, name).slice();
+          // shown as exported: each grid masked to the domains where its model applies
+          for (const name of Object.keys(r.grids)) gridsOut[name] = exportValues(r, name).slice();
           const domains = r.classified.domains.slice();
           const result = {
             geometry: { ...r.geometry, crs: { ...r.geometry.crs } },
@@ -104,7 +104,7 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
               missing: r.boundaries.missing,
               oceanwardAzimuth: r.oceanward.azimuth,
               suggestedTc0: Number.isFinite(r.derived.suggestedTc0) ? r.derived.suggestedTc0 : null,
-              calibrated: { taper: r.calibration.taper?.points.length ?? 0, ocean: r.calibration.ocean?.points.length ?? 0, onlap: r.calibration.onlap?.points.length ?? 0 },
+              calibrated: { taper: r.calibration.taper?.points.length ?? 0, ocean: r.calibration.ocean?.points.length ?? 0, onlap: r.boundaries.onlap.points.length },
             },
             millis: performance.now() - t0,
           };

@@ -1,24 +1,39 @@
 /**
  * The named boundaries (DESIGN.md "Named boundaries") from the domain map, the crustal thickness and
  * the (possibly pick-calibrated) thresholds, in analysis-CRS coordinates with their properties.
- * Each line is split where its evidence changes and into pieces of at most MAX_PIECE metres, so every
- * piece can say what placed it and how far it is from the nearest pick or seismic line.
+ * Steps:
+ *  1. trace the side fields: taper limit, landward limit of oceanic crust, necking and coupling lines;
+ *  2. optional shared-border simplification of those lines and the COT rings together;
+ *  3. the oldest onlapped crust: the oceanic limit moved by the offsets seen at onlap picks (onlap.ts);
+ *  4. pieces: each line split where its evidence changes (near a pick of its kind, proxy near control,
+ *     proxy far from control) and into pieces of at most MAX_PIECE metres; ends that stop at a Moho
+ *     gap are marked;
+ *  5. the COT zone polygons, each with the fraction of its border placed by picks;
+ *  6. clipping to the licence.
  */
 
-import { colToX, rowToY, type GridGeometry } from '../grid/geometry.js';
+import { colToX, rowToY, xToCol, yToRow, type GridGeometry } from '../grid/geometry.js';
 import { lineCount, lineRange, ringArea, traceLevel, type Lines } from '../contour/marching-squares.js';
+import { DOMAIN_MOHO_GAP, isContinentalDomain } from '../domains/classify.js';
+import type { Oceanward } from '../domains/direction.js';
 import type { Params } from '../params.js';
 import { sideField } from './fields.js';
+import { offsetAt, onlapLines, onlapOffset, strikeOf, type OnlapPoint } from './onlap.js';
 import { simplifyShared } from './simplify.js';
 import { clipLineToPolygon, distanceToControl, insideRings, signedArea, type Ring } from './planar.js';
 
-export type BoundaryKind = 'crustal-taper-limit' | 'cot-zone' | 'oldest-onlapped-crust' | 'necking-line' | 'coupling-line';
+export type BoundaryKind = 'crustal-taper-limit' | 'cot-zone' | 'oceanic-limit' | 'oldest-onlapped-crust' | 'necking-line' | 'coupling-line';
+export type LineKind = Exclude<BoundaryKind, 'cot-zone'>;
 
 export interface Pick {
   readonly x: number;
   readonly y: number;
   readonly kind: 'continental-limit' | 'oceanic-limit' | 'onlap';
   readonly line?: string;
+  /** Stable identity: the feature's id, else line/kind, else its position in the file. */
+  readonly id: string;
+  /** Excluded by the user: shown, never used to place or to measure control. */
+  readonly excluded?: boolean;
 }
 
 export interface Isochron {
@@ -38,11 +53,14 @@ export interface BoundaryInput {
   readonly geometry: GridGeometry;
   readonly thickness: Float32Array;
   readonly domains: Uint8Array;
+  readonly oceanward: Oceanward;
   readonly taperLevel: Float32Array | number;
   readonly oceanLevel: Float32Array | number;
-  /** Threshold calibrated to onlap picks, or null when there are none. */
-  readonly onlapLevel: Float32Array | number | null;
+  /** What placed each thickness line, in words (parameter or calibration). */
+  readonly taperSource: string;
+  readonly oceanSource: string;
   readonly params: Params;
+  /** Picks in use (excluded ones left out). */
   readonly picks: Pick[];
   readonly seismicLines: Ring[];
   readonly isochrons: Isochron[];
@@ -53,18 +71,43 @@ export interface BoundaryInput {
   readonly oceanicAgeMax: Float32Array | null;
 }
 
+export interface GapInterruption {
+  readonly kind: LineKind;
+  readonly x: number;
+  readonly y: number;
+}
+
 export interface BoundaryResult {
   readonly pieces: BoundaryPiece[];
   /** Lines clipped to the licence (same pieces model), or null without a licence. */
   readonly inLicence: BoundaryPiece[] | null;
   readonly missing: { kind: BoundaryKind; reason: string }[];
   readonly notes: string[];
-  /** Whole lines in map coordinates for survey planning: the taper limit and the landward limit of
-   * oceanic crust (which, with onlap picks, is not the exported onlap line). */
-  readonly support: { taper: Ring[]; oceanic: Ring[]; necking: Ring[]; coupling: Ring[] };
+  /** Line ends where a line stops because the Moho is not imaged beyond it. */
+  readonly interruptions: GapInterruption[];
+  /** Onlap picks used (offset from the oceanic limit) and those that could not be used. */
+  readonly onlap: { points: OnlapPoint[]; skipped: { id: string; reason: string }[] };
+  /** Whole lines in map coordinates for survey planning and sections. */
+  readonly support: { taper: Ring[]; oceanic: Ring[]; onlap: Ring[]; necking: Ring[]; coupling: Ring[] };
 }
 
 const MAX_PIECE = 10_000;
+/** Metres: "far from either side" in the COT field, beyond any thickness difference. */
+const FAR = 1e7;
+
+/** Cells that are, or have an 8-neighbour that is, in the set. */
+function dilate(inside: (k: number) => boolean, nx: number, ny: number): Uint8Array {
+  const out = new Uint8Array(nx * ny);
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      if (!inside(j * nx + i)) continue;
+      for (let b = Math.max(0, j - 1); b <= Math.min(ny - 1, j + 1); b++) for (let a = Math.max(0, i - 1); a <= Math.min(nx - 1, i + 1); a++) out[b * nx + a] = 1;
+    }
+  }
+  return out;
+}
+
+type Evidence = 'picks' | 'proxy-near' | 'proxy-far';
 
 export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   const g = inp.geometry;
@@ -72,16 +115,14 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   const p = inp.params;
   const dom = inp.domains;
   const tc = inp.thickness;
-  const continental = (k: number) => dom[k] >= 1 && dom[k] <= 3;
+  const continental = (k: number) => isContinentalDomain(dom[k]);
   const oceanic = (k: number) => dom[k] === 5;
-  const notContinental = (k: number) => dom[k] === 4 || dom[k] === 5;
 
+  // 1. Side fields and their lines.
   const gTaper = sideField(tc, continental, inp.taperLevel, true);
   const gOcean = sideField(tc, oceanic, inp.oceanLevel, true);
   const gNeck = sideField(tc, continental, p.neckingFraction * p.tc0, false);
   const gCoupling = sideField(tc, continental, p.couplingThickness, false);
-  const gOnlap = inp.onlapLevel !== null ? sideField(tc, notContinental, inp.onlapLevel, false) : null;
-
   const toMap = (l: Lines): Ring[] => {
     const out: Ring[] = [];
     for (let k = 0; k < lineCount(l); k++) {
@@ -93,124 +134,149 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
     return out;
   };
   const grid = (v: Float32Array) => ({ values: v, nx, ny });
-  const traced = new Map<Float32Array, Ring[]>();
-  const lineOf = (field: Float32Array) => {
-    let l = traced.get(field);
-    if (!l) traced.set(field, (l = toMap(traceLevel(grid(field), 0))));
-    return l;
+  const lines: Record<'taper' | 'oceanic' | 'necking' | 'coupling', Ring[]> = {
+    taper: toMap(traceLevel(grid(gTaper), 0)),
+    oceanic: toMap(traceLevel(grid(gOcean), 0)),
+    necking: toMap(traceLevel(grid(gNeck), 0)),
+    coupling: toMap(traceLevel(grid(gCoupling), 0)),
   };
 
-  // COT zone: between the taper limit and the oceanic limit: {G_taper < 0 and G_ocean < 0}.
+  // COT zone: between the taper limit and the oceanic limit, {G_taper < 0 and G_ocean < 0}, traced
+  // on H = min(T, O) with T = −G_taper next to continental cells (8-neighbours) and FAR elsewhere,
+  // O likewise for oceanic cells. Each border edge then interpolates exactly the values its line
+  // does, so ring and line share vertices bit for bit even where the two thresholds differ (a
+  // transition cell thicker than the taper threshold would otherwise read as "just inside").
+  const nearC = dilate(continental, nx, ny);
+  const nearO = dilate(oceanic, nx, ny);
   const cotField = (mask: Uint8Array | null) => {
     const h = new Float32Array(nx * ny);
     for (let k = 0; k < h.length; k++) {
-      h[k] = mask && !mask[k] ? NaN : Math.min(-gTaper[k], -gOcean[k]);
+      const t = nearC[k] ? -gTaper[k] : FAR;
+      const o = nearO[k] ? -gOcean[k] : FAR;
+      h[k] = mask && !mask[k] ? NaN : gTaper[k] !== gTaper[k] ? NaN : Math.min(t, o);
     }
     return h;
   };
   let cot = zonePolygons(traceLevel(grid(cotField(null)), 0, true), toMap);
   let cotLicence = inp.licence ? zonePolygons(traceLevel(grid(cotField(inp.licenceMask)), 0, true), toMap) : [];
 
-  // Optional simplification, once for all lines and the COT rings together, so shared borders stay shared.
+  // 2. Optional simplification, once for all lines and the COT rings together, so shared borders stay shared.
   if (p.simplifyTolerance > 0) {
-    for (const f of [gTaper, gOnlap ?? gOcean, gNeck, gCoupling, gOcean]) lineOf(f);
-    const lineList: Ring[] = [];
-    const owner: [Float32Array, number][] = [];
-    traced.forEach((ls, f) => ls.forEach((l, i) => (lineList.push(l), owner.push([f, i]))));
+    const keys = ['taper', 'oceanic', 'necking', 'coupling'] as const;
+    const lineList = keys.flatMap((k) => lines[k]);
     const polys = [...cot, ...cotLicence];
     const simp = simplifyShared(lineList, polys.flat(), p.simplifyTolerance);
-    owner.forEach(([f, i], k) => (traced.get(f)![i] = simp.lines[k]));
     let q = 0;
+    for (const k of keys) lines[k] = lines[k].map(() => simp.lines[q++]);
+    q = 0;
     const rebuilt = polys.map((rings) => rings.map(() => simp.rings[q++]));
     cot = rebuilt.slice(0, cot.length);
     cotLicence = rebuilt.slice(cot.length);
   }
-  const controlPoints = inp.picks.map((q) => [q.x, q.y] as [number, number]);
+
+  // 3. Oldest onlapped crust from the oceanic limit and the onlap picks.
+  const reach = Math.hypot(nx * g.dx, ny * g.dy);
+  const onlapPoints: OnlapPoint[] = [];
+  const onlapSkipped: BoundaryResult['onlap']['skipped'] = [];
+  for (const q of inp.picks.filter((q) => q.kind === 'onlap')) {
+    const offset = onlapOffset(q.x, q.y, lines.oceanic, inp.oceanward, reach);
+    if (!Number.isFinite(offset)) onlapSkipped.push({ id: q.id, reason: 'no landward limit of oceanic crust along the oceanward direction through the pick' });
+    else onlapPoints.push({ x: q.x, y: q.y, id: q.id, offset, strike: strikeOf(inp.oceanward, q.x, q.y) });
+  }
+  onlapPoints.sort((a, b) => a.strike - b.strike);
+  const onlap = onlapLines(lines.oceanic, onlapPoints, inp.oceanward);
+
+  // 4. Pieces.
+  const usedPicks = inp.picks;
+  const controlPoints = usedPicks.map((q) => [q.x, q.y] as [number, number]);
+  const hasControl = controlPoints.length > 0 || inp.seismicLines.length > 0;
+  const controlDistance = (x: number, y: number) => (hasControl ? distanceToControl(x, y, controlPoints, inp.seismicLines) : Infinity);
   const missing: BoundaryResult['missing'] = [];
   const notes: string[] = [];
   const pieces: BoundaryPiece[] = [];
-
-  const thresholdText = (t: Float32Array | number, picksKind: string) =>
-    typeof t === 'number' ? `${t} m` : `calibrated to ${picksKind} picks, interpolated along strike`;
-  const lineSpecs: { kind: BoundaryKind; field: Float32Array; rule: string; threshold: Float32Array | number; pickKind: Pick['kind'] | null }[] = [
-    {
-      kind: 'crustal-taper-limit',
-      field: gTaper,
-      rule: `crustal thickness = taper threshold (${thresholdText(inp.taperLevel, 'continental-limit')}), continental side`,
-      threshold: inp.taperLevel,
-      pickKind: 'continental-limit',
-    },
-    {
-      kind: 'oldest-onlapped-crust',
-      field: gOnlap ?? gOcean,
-      rule: gOnlap
-        ? `crustal thickness = threshold ${thresholdText(inp.onlapLevel!, 'onlap')}, oceanic side of the continental crust`
-        : `no onlap picks: landward limit of oceanic-type crust (crustal thickness = ${thresholdText(inp.oceanLevel, 'oceanic-limit')}, oceanic side)`,
-      threshold: inp.onlapLevel ?? inp.oceanLevel,
-      pickKind: gOnlap ? 'onlap' : 'oceanic-limit',
-    },
-    {
-      kind: 'necking-line',
-      field: gNeck,
-      rule: `crustal thickness = ${p.neckingFraction} × tc0 = ${p.neckingFraction * p.tc0} m, continental side`,
-      threshold: p.neckingFraction * p.tc0,
-      pickKind: null,
-    },
-    {
-      kind: 'coupling-line',
-      field: gCoupling,
-      rule: `crustal thickness = coupling thickness ${p.couplingThickness} m, continental side`,
-      threshold: p.couplingThickness,
-      pickKind: null,
-    },
+  const interruptions: GapInterruption[] = [];
+  const gapNear = (x: number, y: number) => {
+    const ci = xToCol(g, x);
+    const cj = yToRow(g, y);
+    for (let j = Math.floor(cj) - 1; j <= Math.ceil(cj) + 1; j++) {
+      for (let i = Math.floor(ci) - 1; i <= Math.ceil(ci) + 1; i++) {
+        if (i >= 0 && j >= 0 && i < nx && j < ny && dom[j * nx + i] === DOMAIN_MOHO_GAP) return true;
+      }
+    }
+    return false;
+  };
+  const offsets = onlapPoints.map((q) => q.offset);
+  const onlapRule = onlapPoints.length
+    ? `landward limit of oceanic crust moved oceanward by the offset seen at ${onlapPoints.length} onlap pick${onlapPoints.length > 1 ? 's' : ''} (${km(Math.min(...offsets))}…${km(Math.max(...offsets))} km), interpolated along strike`
+    : 'no onlap picks: the landward limit of oceanic crust stands in for it (onlap is seen only on seismic)';
+  const specs: { kind: LineKind; lines: Ring[]; rule: string; threshold: Float32Array | number | null; source: string; pickKind: Pick['kind'] | null; proxy: string }[] = [
+    { kind: 'crustal-taper-limit', lines: lines.taper, rule: 'crustal thickness = taper threshold, continental side', threshold: inp.taperLevel, source: inp.taperSource, pickKind: 'continental-limit', proxy: 'crustal thickness at the taper threshold' },
+    { kind: 'oceanic-limit', lines: lines.oceanic, rule: 'crustal thickness = oceanic-crust threshold, oceanic side', threshold: inp.oceanLevel, source: inp.oceanSource, pickKind: 'oceanic-limit', proxy: 'crustal thickness at the oceanic-crust threshold' },
+    { kind: 'oldest-onlapped-crust', lines: onlap, rule: onlapRule, threshold: null, source: onlapPoints.length ? `onlap picks (${onlapPoints.length}) and the oceanic limit (${inp.oceanSource})` : `the oceanic limit (${inp.oceanSource})`, pickKind: 'onlap', proxy: 'oceanic-limit' },
+    { kind: 'necking-line', lines: lines.necking, rule: `crustal thickness = ${p.neckingFraction} × tc0, continental side`, threshold: p.neckingFraction * p.tc0, source: `parameters neckingFraction × tc0 = ${p.neckingFraction * p.tc0} m`, pickKind: null, proxy: 'crustal thickness at the necking limit' },
+    { kind: 'coupling-line', lines: lines.coupling, rule: 'crustal thickness = coupling thickness, continental side', threshold: p.couplingThickness, source: `parameter couplingThickness = ${p.couplingThickness} m`, pickKind: null, proxy: 'crustal thickness at the coupling thickness' },
   ];
-
   const oldestIsochron = inp.isochrons.reduce<Isochron | null>((a, b) => (!a || b.age > a.age ? b : a), null);
 
-  for (const spec of lineSpecs) {
-    const lines = lineOf(spec.field);
-    if (lines.length === 0) {
+  for (const spec of specs) {
+    if (spec.lines.length === 0) {
       missing.push({ kind: spec.kind, reason: `no ${spec.kind} in the data: the rule (${spec.rule}) is never met between the two sides` });
       continue;
     }
-    const relevant = spec.pickKind ? inp.picks.filter((q) => q.kind === spec.pickKind).map((q) => [q.x, q.y] as [number, number]) : [];
-    for (const line of lines) {
-      for (const piece of splitByEvidence(line, relevant, p.pickReach)) {
-        const dists = piece.coords.map(([x, y]) =>
-          controlPoints.length || inp.seismicLines.length ? distanceToControl(x, y, controlPoints, inp.seismicLines) : Infinity,
-        );
+    const relevant = spec.pickKind ? usedPicks.filter((q) => q.kind === spec.pickKind).map((q) => [q.x, q.y] as [number, number]) : [];
+    for (const line of spec.lines) {
+      const closed = isClosed(line);
+      const startGap = !closed && gapNear(line[0][0], line[0][1]);
+      const endGap = !closed && gapNear(line[line.length - 1][0], line[line.length - 1][1]);
+      if (startGap) interruptions.push({ kind: spec.kind, x: line[0][0], y: line[0][1] });
+      if (endGap) interruptions.push({ kind: spec.kind, x: line[line.length - 1][0], y: line[line.length - 1][1] });
+      const dist = line.map(([x, y]) => controlDistance(x, y));
+      const ev: Evidence[] = line.map(([x, y], k) =>
+        relevant.some((q) => Math.hypot(q[0] - x, q[1] - y) <= p.pickReach) ? 'picks' : dist[k] > p.farFromControl ? 'proxy-far' : 'proxy-near',
+      );
+      const parts = splitByEvidence(line, ev);
+      parts.forEach((piece, q) => {
+        const d = dist.slice(piece.from, piece.to + 1);
+        const maxD = Math.max(...d);
         const props: Record<string, unknown> = {
           kind: spec.kind,
           rule: spec.rule,
-          threshold_m: typeof spec.threshold === 'number' ? spec.threshold : 'calibrated',
-          ...(typeof spec.threshold !== 'number' ? { threshold_range_m: rangeAlong(piece.coords, g, spec.threshold) } : {}),
-          evidence: piece.evidence,
-          control_distance_km: Number.isFinite(Math.max(...dists)) ? round3(Math.max(...dists) / 1000) : null,
-          closed: isClosed(line),
+          threshold_m: typeof spec.threshold === 'number' ? spec.threshold : null,
+          threshold_range_m: spec.threshold !== null && typeof spec.threshold !== 'number' ? rangeAlong(piece.coords, g, spec.threshold) : null,
+          placed_by: spec.source,
+          evidence: piece.evidence === 'picks' ? 'picks' : 'proxy',
+          proxy: piece.evidence === 'picks' ? null : spec.proxy,
+          far_from_control: piece.evidence === 'proxy-far',
+          control_distance_km: Number.isFinite(maxD) ? round3(maxD / 1000) : null,
+          ends_at_moho_gap: (q === 0 && startGap) || (q === parts.length - 1 && endGap),
+          closed: closed && parts.length === 1,
         };
         if (spec.kind === 'oldest-onlapped-crust') {
+          props.onlap_offset_km = offsetRange(piece.coords, onlapPoints, inp.oceanward);
           Object.assign(props, ageProperties(piece.coords, g, oldestIsochron, inp.oceanicAgeMin, inp.oceanicAgeMax));
         }
         pieces.push({ kind: spec.kind, coords: [piece.coords], properties: props });
-      }
+      });
     }
   }
 
-  if (cot.length === 0) missing.push({ kind: 'cot-zone', reason: 'no continent–ocean transition zone: no cells lie between continental and oceanic crust' });
-  const hasTaper = pieces.some((q) => q.kind === 'crustal-taper-limit');
-  for (const rings of cot) {
-    pieces.push({
+  // 5. COT zone polygons with the share of their border placed by picks.
+  const limitPicks = usedPicks.filter((q) => q.kind !== 'onlap').map((q) => [q.x, q.y] as [number, number]);
+  const cotProps = (rings: Ring[], clipped: boolean) => {
+    const f = pickedFraction(rings, limitPicks, p.pickReach);
+    return {
       kind: 'cot-zone',
-      coords: rings,
-      properties: {
-        kind: 'cot-zone',
-        rule: 'between the crustal taper limit and the landward limit of oceanic crust',
-        evidence: inp.picks.length ? 'picks' : 'proxy',
-        bounded_by_taper_limit: hasTaper,
-      },
-    });
-  }
+      rule: 'between the crustal taper limit and the landward limit of oceanic crust' + (clipped ? '; cut to the licence at cell centres' : ''),
+      placed_by: `taper limit: ${inp.taperSource}; oceanic limit: ${inp.oceanSource}`,
+      evidence: f >= 0.999 ? 'picks' : f > 0 ? 'mixed' : 'proxy',
+      evidence_picks_fraction: round3(f),
+      ...(clipped ? { clipped_to_licence: true } : {}),
+    };
+  };
+  if (cot.length === 0) missing.push({ kind: 'cot-zone', reason: 'no continent–ocean transition zone: no cells lie between continental and oceanic crust' });
+  for (const rings of cot) pieces.push({ kind: 'cot-zone', coords: rings, properties: cotProps(rings, false) });
 
+  // 6. Licence.
   let inLicence: BoundaryPiece[] | null = null;
   if (inp.licence) {
     inLicence = [];
@@ -220,22 +286,60 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
         inLicence.push({ kind: piece.kind, coords: [part], properties: { ...piece.properties, clipped_to_licence: true, closed: false } });
       }
     }
-    for (const rings of cotLicence) {
-      inLicence.push({
-        kind: 'cot-zone',
-        coords: rings,
-        properties: {
-          kind: 'cot-zone',
-          rule: 'between the crustal taper limit and the landward limit of oceanic crust; cut to the licence at cell centres',
-          evidence: inp.picks.length ? 'picks' : 'proxy',
-          clipped_to_licence: true,
-        },
-      });
-    }
+    for (const rings of cotLicence) inLicence.push({ kind: 'cot-zone', coords: rings, properties: cotProps(rings, true) });
     notes.push('inside the licence, lines are clipped exactly; the COT zone polygon is cut at the cell centres inside the licence (within one cell of its edge)');
   }
-  const support = { taper: lineOf(gTaper), oceanic: lineOf(gOcean), necking: lineOf(gNeck), coupling: lineOf(gCoupling) };
-  return { pieces, inLicence, missing, notes, support };
+  if (interruptions.length) notes.push(`${interruptions.length} line end${interruptions.length > 1 ? 's stop' : ' stops'} where the Moho is not imaged (see lines_interrupted_by_moho_gap)`);
+  const support = { taper: lines.taper, oceanic: lines.oceanic, onlap, necking: lines.necking, coupling: lines.coupling };
+  return { pieces, inLicence, missing, notes, interruptions, onlap: { points: onlapPoints, skipped: onlapSkipped }, support };
+}
+
+const km = (m: number) => (m / 1000).toFixed(1);
+
+/** The zero line of a side field (fields.ts) in map coordinates: one boundary line alone. */
+export function traceSideLine(g: GridGeometry, tc: Float32Array, inside: (k: number) => boolean, level: Float32Array | number): Ring[] {
+  const l = traceLevel({ values: sideField(tc, inside, level, true), nx: g.nx, ny: g.ny }, 0);
+  const out: Ring[] = [];
+  for (let k = 0; k < lineCount(l); k++) {
+    const [b, e] = lineRange(l, k);
+    const r: Ring = [];
+    for (let q = b; q < e; q++) r.push([colToX(g, l.positions[2 * q]), rowToY(g, l.positions[2 * q + 1])]);
+    out.push(r);
+  }
+  return out;
+}
+
+function offsetRange(coords: Ring, points: OnlapPoint[], o: Oceanward): [number, number] {
+  if (!points.length) return [0, 0];
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const [x, y] of coords) {
+    // the moved vertex keeps its strike coordinate, so the offset is read at the same strike
+    const s = strikeOf(o, x, y);
+    const d = offsetAt(points, s);
+    lo = Math.min(lo, d);
+    hi = Math.max(hi, d);
+  }
+  return [round3(lo / 1000), round3(hi / 1000)];
+}
+
+/** Share (by length) of a polygon's border within `reach` of a pick. */
+function pickedFraction(rings: Ring[], picks: [number, number][], reach: number): number {
+  if (!picks.length) return 0;
+  let total = 0;
+  let near = 0;
+  const isNear = ([x, y]: [number, number]) => picks.some((q) => Math.hypot(q[0] - x, q[1] - y) <= reach);
+  for (const r of rings) {
+    let prev = isNear(r[0]);
+    for (let k = 1; k < r.length; k++) {
+      const cur = isNear(r[k]);
+      const len = Math.hypot(r[k][0] - r[k - 1][0], r[k][1] - r[k - 1][1]);
+      total += len;
+      if (prev && cur) near += len;
+      prev = cur;
+    }
+  }
+  return total > 0 ? near / total : 0;
 }
 
 function round3(v: number): number {
@@ -246,27 +350,22 @@ function isClosed(r: Ring): boolean {
   return r.length > 2 && r[0][0] === r[r.length - 1][0] && r[0][1] === r[r.length - 1][1];
 }
 
-/** Split a line where vertices change from near a relevant pick (≤ reach) to not, and into ≤ MAX_PIECE parts. */
-function splitByEvidence(line: Ring, picks: [number, number][], reach: number): { coords: Ring; evidence: 'picks' | 'proxy' }[] {
-  const ev = line.map(([x, y]) => (picks.some((q) => Math.hypot(q[0] - x, q[1] - y) <= reach) ? 'picks' : 'proxy') as 'picks' | 'proxy');
-  const out: { coords: Ring; evidence: 'picks' | 'proxy' }[] = [];
-  let cur: Ring = [line[0]];
-  let curEv = ev[0];
+/** Split a line where its vertices' evidence changes, and into parts of at most MAX_PIECE metres. */
+function splitByEvidence(line: Ring, ev: Evidence[]): { coords: Ring; evidence: Evidence; from: number; to: number }[] {
+  const out: { coords: Ring; evidence: Evidence; from: number; to: number }[] = [];
+  let from = 0;
   let len = 0;
   for (let k = 1; k < line.length; k++) {
     const step = Math.hypot(line[k][0] - line[k - 1][0], line[k][1] - line[k - 1][1]);
-    if (ev[k] !== curEv || len + step > MAX_PIECE) {
-      cur.push(line[k]);
-      out.push({ coords: cur, evidence: curEv });
-      cur = [line[k]];
-      curEv = ev[k];
+    if (ev[k] !== ev[from] || len + step > MAX_PIECE) {
+      out.push({ coords: line.slice(from, k + 1), evidence: ev[from], from, to: k });
+      from = k;
       len = 0;
       continue;
     }
-    cur.push(line[k]);
     len += step;
   }
-  if (cur.length >= 2) out.push({ coords: cur, evidence: curEv });
+  if (from < line.length - 1) out.push({ coords: line.slice(from), evidence: ev[from], from, to: line.length - 1 });
   return out;
 }
 

@@ -116,3 +116,28 @@ export function simplifyPath(path: Ring, tolerance: number): Ring {
   douglasPeuckerMark(path, 0, path.length - 1, tolerance, keep);
   return path.filter((_, k) => keep[k]);
 }
+
+/** Parameter along a→b where it crosses c–d (a→b half-open, c–d closed), or null. */
+export function segmentHit(a: [number, number], b: [number, number], c: [number, number], d: [number, number]): number | null {
+  const den = (b[0] - a[0]) * (d[1] - c[1]) - (b[1] - a[1]) * (d[0] - c[0]);
+  if (den === 0) return null;
+  const t = ((c[0] - a[0]) * (d[1] - c[1]) - (c[1] - a[1]) * (d[0] - c[0])) / den;
+  const u = ((c[0] - a[0]) * (b[1] - a[1]) - (c[1] - a[1]) * (b[0] - a[0])) / den;
+  if (t < 0 || t >= 1 || u < 0 || u > 1) return null;
+  return t;
+}
+
+/** Signed distances t (map units along the unit vector dir from origin, within ±reach) where the
+ * line through origin crosses any of the lines, sorted ascending. */
+export function rayHits(origin: [number, number], dir: [number, number], reach: number, lines: Ring[]): number[] {
+  const a: [number, number] = [origin[0] - dir[0] * reach, origin[1] - dir[1] * reach];
+  const b: [number, number] = [origin[0] + dir[0] * reach, origin[1] + dir[1] * reach];
+  const ts: number[] = [];
+  for (const l of lines) {
+    for (let q = 0; q < l.length - 1; q++) {
+      const t = segmentHit(a, b, l[q], l[q + 1]);
+      if (t !== null) ts.push(t * 2 * reach - reach);
+    }
+  }
+  return ts.sort((p, q) => p - q);
+}

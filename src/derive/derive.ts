@@ -7,6 +7,8 @@
  *  - seabed above sea level (land): water depth 0; unloading and subsidence not computed there;
  *  - crust thicker than tc0 (β < 1): kept as computed and counted (tc0 may be too small);
  *  - basement but no Moho: "Moho not imaged" (not "no data"): thickness-based grids NaN, others kept.
+ * The grids here are raw (β may be +∞, ages +∞ beyond an age–depth asymptote, every model over
+ * every cell); derive/applicability turns them into what is shown and exported, per domain.
  */
 
 import { ageFromDepth, type AgeDepthCurve } from '../science/age-depth.js';
@@ -31,9 +33,7 @@ export interface DeriveFlags {
   basementAtSeabed: number;
   land: number;
   betaBelowOne: number;
-  subsidenceBeyondInfinite: number;
   noSubsidence: number;
-  ageBeyondAsymptote: number;
 }
 
 export interface Derived {
@@ -70,7 +70,7 @@ export function derive(input: DeriveInput, p: Params): Derived {
   const grids = Object.fromEntries(DERIVED.map((d) => [d.name, new Float32Array(n)])) as Record<DerivedName, Float32Array>;
   const flags: DeriveFlags = {
     noData: 0, mohoAboveBasement: 0, zeroCrust: 0, mohoNotImaged: 0, basementAboveSeabed: 0, basementAtSeabed: 0,
-    land: 0, betaBelowOne: 0, subsidenceBeyondInfinite: 0, noSubsidence: 0, ageBeyondAsymptote: 0,
+    land: 0, betaBelowOne: 0, noSubsidence: 0,
   };
   const warnings: string[] = [];
 
@@ -179,8 +179,7 @@ export function derive(input: DeriveInput, p: Params): Derived {
       }
       if (Y === Y) {
         bs = inverter!.invert(Y);
-        if (bs === Infinity) flags.subsidenceBeyondInfinite++;
-        else if (!(Y > 0)) flags.noSubsidence++;
+        if (bs !== Infinity && !(Y > 0)) flags.noSubsidence++;
       }
     }
     g['predicted-water-loaded'][k] = pred;
@@ -188,16 +187,17 @@ export function derive(input: DeriveInput, p: Params): Derived {
     g['beta-subsidence'][k] = bs;
     g['beta-ratio'][k] = beta === Infinity && bs === Infinity ? NaN : bs / beta;
 
-    // Indicative oceanic age: widest of both curves over Y ± the depth uncertainty.
+    // Indicative oceanic age: widest of both curves over Y ± the depth uncertainty. Raw here (+∞
+    // beyond an asymptote); derive/applicability masks it to oceanic crust and caps it at the rift.
     let aMin = NaN;
     let aMax = NaN;
     if (Y === Y) {
       aMin = Math.min(ageFromDepth(Y - dAge, curve), ageFromDepth(Y - dAge, other));
       aMax = Math.max(ageFromDepth(Y + dAge, curve), ageFromDepth(Y + dAge, other));
-      if (ageFromDepth(Y, curve) === Infinity) flags.ageBeyondAsymptote++;
     }
     g['oceanic-age-min'][k] = aMin;
     g['oceanic-age-max'][k] = aMax;
+    g['oceanic-depth-anomaly'][k] = NaN; // needs the domains and isochrons: derive/applicability
   }
 
   if (flags.mohoAboveBasement > 0.5 * n) {
@@ -208,7 +208,6 @@ export function derive(input: DeriveInput, p: Params): Derived {
   if (flags.basementAboveSeabed) warnings.push(`${flags.basementAboveSeabed} cells with basement above seabed by more than ${basementTolerance} m: pick errors, set to no data`);
   if (flags.land) warnings.push(`${flags.land} cells above sea level: water depth 0; unloading, subsidence and ages not computed there`);
   if (flags.betaBelowOne) warnings.push(`${flags.betaBelowOne} cells with crust thicker than tc0 = ${tc0} m (β < 1): consider a larger reference thickness`);
-  if (flags.subsidenceBeyondInfinite) warnings.push(`${flags.subsidenceBeyondInfinite} cells subside more than McKenzie's β = ∞ allows: β from subsidence reported as unbounded`);
 
   // Suggest tc0 as the 95th percentile of crustal thickness (never applied).
   let total = 0;

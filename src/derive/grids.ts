@@ -1,25 +1,42 @@
-/** The derived grids: names (also their export file names), units and what each holds. */
+/**
+ * The derived grids: names (also their export file names), units, what each holds and where its
+ * model applies. `applies` is the rule the exported and displayed grid follows (derive/applicability):
+ *  - all: a plain difference of the inputs, meaningful wherever they are;
+ *  - continental: thickness-based stretching and the models of stretched continental lithosphere
+ *    (McKenzie 1978 uniform stretching, the Airy balance against a continental reference column) —
+ *    over the proximal, necking and hyperextended domains only;
+ *  - oceanic: age–depth relations of oceanic lithosphere — over the oceanic domain only.
+ */
+
+export type Applies = 'all' | 'continental' | 'oceanic';
 
 export const DERIVED = [
-  { name: 'water-depth', unit: 'm', desc: 'water depth (seabed depth), m' },
-  { name: 'sediment-thickness', unit: 'm', desc: 'sediment thickness, basement minus seabed, m' },
-  { name: 'crustal-thickness', unit: 'm', desc: 'crustal thickness, Moho minus basement, m' },
-  { name: 'beta-crust', unit: '', desc: 'whole-crust stretching factor beta = tc0/tc (+Inf = no crust)' },
-  { name: 'gamma', unit: '', desc: 'thinning factor gamma = 1 - tc/tc0' },
-  { name: 'water-loaded-basement', unit: 'm', desc: 'basement depth with sediment unloaded (water-loaded), m' },
-  { name: 'predicted-water-loaded', unit: 'm', desc: 'water-loaded depth predicted by McKenzie 1978 for beta-crust at the rift age, m' },
-  { name: 'subsidence-residual', unit: 'm', desc: 'observed minus predicted water-loaded depth, m' },
-  { name: 'beta-subsidence', unit: '', desc: 'stretching factor from subsidence, McKenzie 1978 (+Inf = beyond beta infinity)' },
-  { name: 'beta-ratio', unit: '', desc: 'beta-subsidence / beta-crust' },
-  { name: 'airy-thickness', unit: 'm', desc: 'crustal thickness implied by water and sediment loads (Airy), m' },
-  { name: 'airy-residual', unit: 'm', desc: 'observed minus Airy-implied crustal thickness, m' },
-  { name: 'oceanic-age-min', unit: 'Ma', desc: 'indicative oceanic age, young end (wide range; depth-derived)' },
-  { name: 'oceanic-age-max', unit: 'Ma', desc: 'indicative oceanic age, old end (wide range; depth-derived; +Inf = no finite age)' },
-] as const;
+  { name: 'water-depth', unit: 'm', applies: 'all', desc: 'water depth (seabed depth), m' },
+  { name: 'sediment-thickness', unit: 'm', applies: 'all', desc: 'sediment thickness, basement minus seabed, m' },
+  { name: 'crustal-thickness', unit: 'm', applies: 'all', desc: 'crustal thickness, Moho minus basement, m' },
+  { name: 'beta-crust', unit: '', applies: 'continental', desc: 'whole-crust stretching factor beta = tc0/tc; no data where unbounded (zero crust, see unbounded-beta)' },
+  { name: 'gamma', unit: '', applies: 'continental', desc: 'thinning factor gamma = 1 - tc/tc0' },
+  { name: 'water-loaded-basement', unit: 'm', applies: 'all', desc: 'basement depth with sediment unloaded (water-loaded), m' },
+  { name: 'predicted-water-loaded', unit: 'm', applies: 'continental', desc: 'water-loaded depth predicted by McKenzie 1978 for beta-crust at the rift age, m' },
+  { name: 'subsidence-residual', unit: 'm', applies: 'continental', desc: 'observed minus McKenzie-predicted water-loaded depth, m' },
+  { name: 'beta-subsidence', unit: '', applies: 'continental', desc: 'stretching factor from subsidence, McKenzie 1978; no data where beyond beta infinity (see unbounded-beta)' },
+  { name: 'beta-ratio', unit: '', applies: 'continental', desc: 'beta-subsidence / beta-crust' },
+  { name: 'airy-thickness', unit: 'm', applies: 'continental', desc: 'crustal thickness implied by water and sediment loads (Airy, continental reference column), m' },
+  { name: 'airy-residual', unit: 'm', applies: 'continental', desc: 'observed minus Airy-implied crustal thickness (includes thermal subsidence still to come), m' },
+  { name: 'oceanic-age-min', unit: 'Ma', applies: 'oceanic', desc: 'indicative oceanic age, young end (wide range; depth-derived; never older than the rift)' },
+  { name: 'oceanic-age-max', unit: 'Ma', applies: 'oceanic', desc: 'indicative oceanic age, old end (wide range; depth-derived; capped at the rift age)' },
+  { name: 'oceanic-depth-anomaly', unit: 'm', applies: 'oceanic', desc: 'residual depth anomaly where the depth-derived age would be older than the rift: water-loaded depth minus the age-depth curve at the isochron (else rift) age, m' },
+] as const satisfies readonly { name: string; unit: string; applies: Applies; desc: string }[];
 
 export type DerivedName = (typeof DERIVED)[number]['name'];
 
-/** Grids that describe stretched continental lithosphere: masked over the oceanic domain on export. */
-export const CONTINENTAL_ONLY: readonly DerivedName[] = ['beta-crust', 'gamma', 'beta-subsidence', 'beta-ratio'];
-/** Grids that only mean something over oceanic crust: masked elsewhere on export. */
-export const OCEANIC_ONLY: readonly DerivedName[] = ['oceanic-age-min', 'oceanic-age-max'];
+/** Where each grid's model applies, in words (for the summary and the legend). */
+export const APPLIES_TEXT: Record<Applies, string> = {
+  all: 'every cell with data',
+  continental: 'continental domains only (proximal, necking, hyperextended): the model is of stretched continental lithosphere',
+  oceanic: 'oceanic domain only: age–depth relations hold for oceanic lithosphere',
+};
+
+export function appliesOf(name: string): Applies {
+  return DERIVED.find((d) => d.name === name)?.applies ?? 'all';
+}

@@ -6,10 +6,12 @@
  *  - oceanic side: 4-connected cells with tc ≥ the oceanic-limit threshold that reach the oceanward edge;
  *  - landward/oceanward edges: the grid-boundary cells in the outer tenth of the range of positions
  *    projected on the oceanward direction;
- *  - isolated thick components touching neither: continental blocks when at least minBlockArea
- *    (labelled), else transition;
+ *  - isolated thick components (tc ≥ taper threshold) that neither reach the landward edge nor hold
+ *    or touch oceanic-side crust: continental blocks when at least max(minBlockArea, minBlockCells
+ *    cells) — labelled; smaller ones are treated like thin cells (enclosure decides, below);
  *  - thin cells enclosed by one side join it (flagged); thin cells between the sides are transition;
- *  - basement but no Moho: "Moho not imaged", transition (4), never no data;
+ *  - basement but no Moho: "Moho not imaged", its own class (6), never no data and never part of
+ *    another domain; it takes no part in connectivity or enclosure;
  *  - a component reaching both edges: thickness cannot resolve the transition there; its cells
  *    thinner than the typical oceanic maximum become transition, flagged "unresolved".
  * Crust-type polygons (evidence) force their cells before connectivity is computed.
@@ -26,9 +28,14 @@ export const DOMAIN_NAMES = [
   'hyperextended continental',
   'transition (exhumed mantle or unresolved)',
   'oceanic',
+  'Moho not imaged',
 ] as const;
 
-export type DomainCode = 0 | 1 | 2 | 3 | 4 | 5;
+export type DomainCode = 0 | 1 | 2 | 3 | 4 | 5 | 6;
+
+export const DOMAIN_MOHO_GAP = 6;
+/** Continental domains (proximal, necking, hyperextended). */
+export const isContinentalDomain = (d: number) => d >= 1 && d <= 3;
 
 /** Forced crust type per cell from evidence polygons. */
 export const FORCE_NONE = 0;
@@ -52,8 +59,10 @@ export interface ClassifyInput {
   readonly couplingThickness: number;
   readonly oceanicMin: number;
   readonly oceanicMax: number;
-  /** km²; isolated thick components smaller than this become transition. */
+  /** km²; isolated thick components smaller than this are not mapped as blocks. */
   readonly minBlockArea: number;
+  /** Cells; isolated thick components with fewer cells are not mapped as blocks. */
+  readonly minBlockCells: number;
   /** Area of one cell in km² (planar in the analysis CRS; block sizes only). */
   readonly cellAreaKm2: number;
   readonly force?: Uint8Array;
@@ -70,8 +79,10 @@ export const FLAG_FORCED = 32;
 export interface Classified {
   readonly domains: Uint8Array;
   readonly flags: Uint8Array;
-  /** Isolated continental blocks kept (label, cells, planar km²). */
-  readonly blocks: { label: number; cells: number; areaKm2: number }[];
+  /** Isolated continental blocks kept (label, cells, planar km², centre in map coordinates). */
+  readonly blocks: { label: number; cells: number; areaKm2: number; x: number; y: number }[];
+  /** The smallest block mapped (km²): max(minBlockArea, minBlockCells × cell area). */
+  readonly minBlockKm2: number;
   readonly counts: Record<string, number>;
   readonly warnings: string[];
 }
@@ -131,6 +142,14 @@ export function classify(inp: ClassifyInput): Classified {
     if (landSeed[k] && cc.labels[k]) contComp[cc.labels[k]] = 1;
     if (oceanSeed[k] && co.labels[k]) oceanComp[co.labels[k]] = 1;
   }
+  // A thick component that holds oceanic-side crust, or reaches the oceanward edge, is part of the
+  // ocean (its cells between the two thresholds are thin relative to oceanic crust), never a block.
+  const oceanLinked = new Uint8Array(cc.count + 1);
+  for (let k = 0; k < n; k++) {
+    const lc = cc.labels[k];
+    if (!lc) continue;
+    if (oceanSeed[k] || (co.labels[k] && oceanComp[co.labels[k]])) oceanLinked[lc] = 1;
+  }
 
   const domains = new Uint8Array(n);
   const flags = new Uint8Array(n);
@@ -155,7 +174,7 @@ export function classify(inp: ClassifyInput): Classified {
       else flags[k] |= FLAG_UNRESOLVED;
     } else if (isC) side[k] = SIDE_C;
     else if (isO) side[k] = SIDE_O;
-    else if (lc > 0) blockSizes.set(lc, cc.sizes[lc]);
+    else if (lc > 0 && !oceanLinked[lc] && contComp[lc] === 0) blockSizes.set(lc, cc.sizes[lc]);
   }
   if (merged) {
     warnings.push(
@@ -165,13 +184,26 @@ export function classify(inp: ClassifyInput): Classified {
   }
 
   // Isolated thick components: continental blocks when large enough.
-  const blocks: { label: number; cells: number; areaKm2: number }[] = [];
+  const blocks: Classified['blocks'] = [];
   const keepBlock = new Set<number>();
+  const minBlockKm2 = Math.max(inp.minBlockArea, inp.minBlockCells * inp.cellAreaKm2);
   for (const [label, cells] of blockSizes) {
     const areaKm2 = cells * inp.cellAreaKm2;
-    if (areaKm2 >= inp.minBlockArea) {
+    if (areaKm2 >= minBlockKm2 && cells >= inp.minBlockCells) {
       keepBlock.add(label);
-      blocks.push({ label, cells, areaKm2 });
+      blocks.push({ label, cells, areaKm2, x: 0, y: 0 });
+    }
+  }
+  if (blocks.length) {
+    const sum = new Map(blocks.map((b) => [b.label, [0, 0]]));
+    for (let k = 0; k < n; k++) {
+      const s = sum.get(cc.labels[k]);
+      if (s) (s[0] += k % nx), (s[1] += Math.floor(k / nx));
+    }
+    for (const b of blocks) {
+      const s = sum.get(b.label)!;
+      b.x = colToX(g, s[0] / b.cells);
+      b.y = rowToY(g, s[1] / b.cells);
     }
   }
   for (let k = 0; k < n; k++) {
@@ -183,9 +215,9 @@ export function classify(inp: ClassifyInput): Classified {
     }
   }
 
-  // The rest (thin, Moho not imaged, small blocks, unresolved): enclosure decides.
+  // The rest (thin, small blocks, unresolved): enclosure decides. Moho gaps take no part.
   const rest = new Uint8Array(n);
-  for (let k = 0; k < n; k++) if (inp.valid[k] && !side[k]) rest[k] = 1;
+  for (let k = 0; k < n; k++) if (inp.valid[k] && !side[k] && tc[k] === tc[k]) rest[k] = 1;
   const cr = components(rest, nx, ny);
   const touches = new Uint8Array(cr.count + 1); // bit 1: continental side, bit 2: oceanic side
   for (let k = 0; k < n; k++) {
@@ -207,7 +239,7 @@ export function classify(inp: ClassifyInput): Classified {
       const f = force ? force[k] : FORCE_NONE;
       if (t !== t) {
         flags[k] |= FLAG_MOHO_NOT_IMAGED;
-        d = 4;
+        d = 6;
       } else if (side[k] === SIDE_C) d = t >= neck ? 1 : t >= inp.couplingThickness ? 2 : 3;
       else if (side[k] === SIDE_O) d = 5;
       else if (f === FORCE_TRANSITION || flags[k] & FLAG_UNRESOLVED) d = 4;
@@ -228,5 +260,5 @@ export function classify(inp: ClassifyInput): Classified {
   }
   if (!contComp.some((v) => v === 1)) warnings.push('no continental crust reaches the landward edge: no continental side found (check the oceanward direction)');
   if (!oceanComp.some((v) => v === 1)) warnings.push('no crust above the oceanic-limit threshold reaches the oceanward edge: no oceanic side found');
-  return { domains, flags, blocks, counts, warnings };
+  return { domains, flags, blocks, minBlockKm2, counts, warnings };
 }

@@ -3,8 +3,10 @@
  * as bytes keyed by relative path. Shells write them (CLI) or offer them for download (app).
  */
 
-import { DERIVED, CONTINENTAL_ONLY, OCEANIC_ONLY } from '../derive/grids.js';
+import { APPLIES_TEXT, DERIVED } from '../derive/grids.js';
 import { DOMAIN_NAMES, FLAG_ATYPICAL_OCEANIC, FLAG_BLOCK, FLAG_ENCLOSED_THIN, FLAG_FORCED, FLAG_UNRESOLVED } from '../domains/classify.js';
+import { WGS84 } from '../crs/registry.js';
+import { transformer } from '../crs/transform.js';
 import { writeGeoTiff } from '../io/geotiff-write.js';
 import { DEFAULT_PARAMS, PARAM_SPECS } from '../params.js';
 import type { PipelineResult } from '../pipeline.js';
@@ -20,16 +22,11 @@ export interface RunInfo {
 const enc = new TextEncoder();
 const json = (v: unknown) => enc.encode(JSON.stringify(v, null, 1) + '\n');
 
-/** Derived grid values as exported: masked over the oceanic domain or outside it where they have no meaning. */
+/** Derived grid values as exported and shown: masked to the domains where each model applies, no ±∞. */
 export function exportValues(r: PipelineResult, name: string): Float32Array {
-  const v = r.derived.grids[name as keyof typeof r.derived.grids];
-  const d = r.classified.domains;
-  const continentalOnly = (CONTINENTAL_ONLY as readonly string[]).includes(name);
-  const oceanicOnly = (OCEANIC_ONLY as readonly string[]).includes(name);
-  if (!continentalOnly && !oceanicOnly) return v;
-  const out = new Float32Array(v.length);
-  for (let k = 0; k < v.length; k++) out[k] = (continentalOnly && d[k] === 5) || (oceanicOnly && d[k] !== 5) ? NaN : v[k];
-  return out;
+  const v = r.grids[name as keyof typeof r.grids];
+  if (!v) throw new Error(`no derived grid named ${name}`);
+  return v;
 }
 
 export function gridFiles(r: PipelineResult, run?: RunInfo): Record<string, Uint8Array> {
@@ -43,6 +40,10 @@ export function gridFiles(r: PipelineResult, run?: RunInfo): Record<string, Uint
     ...prov,
     noData: 0,
     description: `margin domains: ${DOMAIN_NAMES.map((n, k) => `${k} ${n}`).join('; ')}`,
+  });
+  files['grids/unbounded-beta.tif'] = writeGeoTiff(r.geometry, r.applied.unboundedBeta, {
+    ...prov,
+    description: 'unbounded beta: 1 zero crust (beta-crust unbounded), 2 subsidence beyond McKenzie beta infinity (continental cells), 3 both, 0 neither',
   });
   return files;
 }
@@ -108,12 +109,28 @@ export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCol
       calibrated: {
         'crustal-taper-limit': r.calibration.taper ? r.calibration.taper.points.length : 0,
         'oceanic-limit': r.calibration.ocean ? r.calibration.ocean.points.length : 0,
-        'oldest-onlapped-crust': r.calibration.onlap ? r.calibration.onlap.points.length : 0,
+        'oldest-onlapped-crust': r.boundaries.onlap.points.length,
       },
+      excluded_picks: r.evidence.picks.filter((q) => q.excluded).map((q) => q.id),
+      suspect_picks: r.pickChecks.filter((c) => c.suspect).map((c) => ({ ...c, ...lonLat(r, c.x, c.y) })),
     },
-    flagged_cells: { ...r.derived.flags, ...classFlagCounts(r.classified.flags) },
+    lines_placed_by: {
+      'crustal-taper-limit': r.placedBy.taper,
+      'oceanic-limit': r.placedBy.oceanic,
+      'oldest-onlapped-crust': String(r.boundaries.pieces.find((q) => q.kind === 'oldest-onlapped-crust')?.properties.placed_by ?? 'not drawn'),
+      'necking-line': `parameters neckingFraction × tc0 = ${r.params.neckingFraction * r.params.tc0} m`,
+      'coupling-line': `parameter couplingThickness = ${r.params.couplingThickness} m`,
+    },
+    lines_interrupted_by_moho_gap: r.boundaries.interruptions.map((q) => ({ kind: q.kind, ...lonLat(r, q.x, q.y) })),
+    grid_rules: Object.fromEntries(DERIVED.map((d) => [d.name, APPLIES_TEXT[d.applies]])),
+    depth_anomaly_reference: r.applied.anomalyReference,
+    flagged_cells: { ...r.derived.flags, ...r.applied.counts, ...classFlagCounts(r.classified.flags) },
     domain_cells: r.classified.counts,
-    continental_blocks: r.classified.blocks,
+    continental_blocks: {
+      min_block_km2: Math.round(r.classified.minBlockKm2 * 1000) / 1000,
+      rule: `isolated continental components at least max(minBlockArea = ${r.params.minBlockArea} km², minBlockCells = ${r.params.minBlockCells} cells)`,
+      blocks: r.classified.blocks.map((b) => ({ cells: b.cells, area_km2: Math.round(b.areaKm2 * 1000) / 1000, ...lonLat(r, b.x, b.y) })),
+    },
     areas_km2: { whole_grid: area(r.areas.total), inside_licence: area(r.areas.inLicence), licence: r.licenceName },
     cot_zone_area_km2: Math.round(cot * 1000) / 1000,
     boundary_lengths_km: lengths,
@@ -122,6 +139,11 @@ export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCol
     notes: r.boundaries.notes,
     warnings: r.warnings,
   };
+}
+
+function lonLat(r: PipelineResult, x: number, y: number): { lon: number; lat: number } {
+  const [lon, lat] = transformer(r.geometry.crs, WGS84).forward([x, y]);
+  return { lon: Math.round(lon * 1e5) / 1e5, lat: Math.round(lat * 1e5) / 1e5 };
 }
 
 function classFlagCounts(flags: Uint8Array): Record<string, number> {

@@ -21,8 +21,8 @@ import { geodesicLength } from '../crs/geodesy.js';
 import { WGS84, type Crs } from '../crs/registry.js';
 import { transformer } from '../crs/transform.js';
 import type { Oceanward } from '../domains/direction.js';
-import { clipLineToPolygon, distanceToControl, pointSegmentDistance, type Ring } from '../boundaries/planar.js';
-import { resamplePath, segmentHit } from './section.js';
+import { clipLineToPolygon, distanceToControl, pointSegmentDistance, rayHits, type Ring } from '../boundaries/planar.js';
+import { resamplePath } from './section.js';
 import type { PlanParams } from './params.js';
 
 export interface PlanInput {
@@ -77,20 +77,6 @@ export interface Plan {
 }
 
 type P = [number, number];
-
-/** Parameters t (map units along dir from origin) where the ray crosses any of the lines, sorted. */
-function rayHits(origin: P, dir: P, reach: number, lines: Ring[]): number[] {
-  const a: P = [origin[0] - dir[0] * reach, origin[1] - dir[1] * reach];
-  const b: P = [origin[0] + dir[0] * reach, origin[1] + dir[1] * reach];
-  const ts: number[] = [];
-  for (const l of lines) {
-    for (let q = 0; q < l.length - 1; q++) {
-      const t = segmentHit(a, b, l[q], l[q + 1]);
-      if (t !== null) ts.push(t * 2 * reach - reach);
-    }
-  }
-  return ts.sort((p, q) => p - q);
-}
 
 /** Landward-most taper crossing and the first oceanic crossing beyond it along `dir` through `origin`. */
 export function zoneCrossing(origin: P, dir: P, reach: number, taper: Ring[], oceanic: Ring[]): { tTaper: number; tOcean: number } | null {

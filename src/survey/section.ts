@@ -9,7 +9,7 @@ import { WGS84, type Crs } from '../crs/registry.js';
 import { transformer } from '../crs/transform.js';
 import { xToCol, yToRow, type GridGeometry } from '../grid/geometry.js';
 import { sampleBilinear } from '../grid/resample.js';
-import type { Ring } from '../boundaries/planar.js';
+import { segmentHit, type Ring } from '../boundaries/planar.js';
 
 export interface SectionGrids {
   readonly geometry: GridGeometry;
@@ -105,16 +105,6 @@ export function sampleSection(g: SectionGrids, path: Ring, lines: Record<string,
   }
   s.crossings.sort((a, b) => a.chainageKm - b.chainageKm);
   return s;
-}
-
-/** Parameter along a→b where it crosses c–d (both closed), or null. */
-export function segmentHit(a: [number, number], b: [number, number], c: [number, number], d: [number, number]): number | null {
-  const den = (b[0] - a[0]) * (d[1] - c[1]) - (b[1] - a[1]) * (d[0] - c[0]);
-  if (den === 0) return null;
-  const t = ((c[0] - a[0]) * (d[1] - c[1]) - (c[1] - a[1]) * (d[0] - c[0])) / den;
-  const u = ((c[0] - a[0]) * (b[1] - a[1]) - (c[1] - a[1]) * (b[0] - a[0])) / den;
-  if (t < 0 || t >= 1 || u < 0 || u > 1) return null;
-  return t;
 }
 
 /** Section as CSV: one row per sample, named columns with units, CRS stated in a comment line. */

@@ -37,7 +37,8 @@ describe('demo acceptance: proxy only (no picks)', async () => {
   const truth = truthLines(100);
   const cases: [string, string][] = [
     ['crustal-taper-limit', 'crustal-taper-limit'],
-    ['oldest-onlapped-crust', 'oceanic-limit'],
+    ['oceanic-limit', 'oceanic-limit'],
+    ['oldest-onlapped-crust', 'oceanic-limit'], // no onlap picks: the oceanic limit stands in, and says so
     ['necking-line', 'necking-line'],
     ['coupling-line', 'coupling-line'],
   ];
@@ -64,9 +65,9 @@ describe('demo acceptance: proxy only (no picks)', async () => {
 
   it('domain areas are within 2% of the true areas', () => {
     const demo = generateDemoGrids();
-    const trueCells = new Array(6).fill(0);
+    const trueCells = new Array(7).fill(0);
     for (const d of demo.domains) trueCells[d]++;
-    for (const code of [1, 2, 3, 4, 5]) {
+    for (const code of [1, 2, 3, 4, 5, 6]) {
       const got = r.areas.total[code].cells;
       expect(Math.abs(got - trueCells[code]) / trueCells[code], `domain ${code}: ${got} vs ${trueCells[code]}`).toBeLessThan(0.02);
     }
@@ -119,7 +120,7 @@ describe('simplification keeps shared borders shared', async () => {
       const origRing = new Set(ringOf(plain).map(keyOf));
       const ringOnLine = new Set(ringOf(simple).map(keyOf).filter((k) => origLine.has(k)));
       const lineOnRing = new Set(simple.boundaries.support[line].flat().map((v) => keyOf(v as P)).filter((k) => origRing.has(k)));
-      expect(ringOnLine.size).toBeGreaterThan(50);
+      expect(ringOnLine.size).toBeGreaterThan(20);
       expect([...ringOnLine].sort()).toEqual([...lineOnRing].sort());
     }
   });

@@ -57,7 +57,7 @@ describe('classify', () => {
   }
   const base = {
     geometry: geom, valid: new Uint8Array(nx * ny).fill(1), taperLevel: 2000, oceanLevel: 2000, oceanward: oceanwardFromAzimuth(90),
-    tc0: 35000, neckingFraction: 0.8, couplingThickness: 10000, oceanicMin: 5000, oceanicMax: 9000, minBlockArea: 0, cellAreaKm2: 1,
+    tc0: 35000, neckingFraction: 0.8, couplingThickness: 10000, oceanicMin: 5000, oceanicMax: 9000, minBlockArea: 0, minBlockCells: 1, cellAreaKm2: 1,
   };
   const at = (a: ArrayLike<number>, i: number, j: number) => a[j * nx + i];
 
@@ -66,12 +66,12 @@ describe('classify', () => {
     // i = 12: 28 800 m ≥ 28 000 → proximal; i = 14: 25 600 → necking; i = 25: 8 000 → hyperextended
     expect([at(c.domains, 5, 3), at(c.domains, 12, 3), at(c.domains, 14, 3), at(c.domains, 25, 3), at(c.domains, 33, 3), at(c.domains, 50, 3)]).toEqual([1, 1, 2, 3, 4, 5]);
   });
-  it('Moho not imaged is transition with its flag, never no data; missing basement is no data', () => {
+  it('Moho not imaged is its own class (6) with its flag, never no data; missing basement is no data', () => {
     const t = thickness((i, j, v) => (i === 50 && j === 5 ? NaN : v));
     const valid = new Uint8Array(nx * ny).fill(1);
     valid[5 * nx + 51] = 0;
     const c = classify({ ...base, thickness: t, valid });
-    expect(at(c.domains, 50, 5)).toBe(4);
+    expect(at(c.domains, 50, 5)).toBe(6);
     expect(at(c.flags, 50, 5) & FLAG_MOHO_NOT_IMAGED).toBeTruthy();
     expect(at(c.domains, 51, 5)).toBe(0);
   });
@@ -88,7 +88,7 @@ describe('classify', () => {
     const kept = classify({ ...base, thickness: t, minBlockArea: 5 });
     expect(at(kept.domains, 34, 9)).toBe(3);
     expect(at(kept.flags, 34, 9) & FLAG_BLOCK).toBeTruthy();
-    expect(kept.blocks).toEqual([{ label: expect.any(Number), cells: 9, areaKm2: 9 }]);
+    expect(kept.blocks).toEqual([{ label: expect.any(Number), cells: 9, areaKm2: 9, x: expect.any(Number), y: expect.any(Number) }]);
     const dropped = classify({ ...base, thickness: t, minBlockArea: 10 });
     expect(at(dropped.domains, 34, 9)).toBe(4);
   });

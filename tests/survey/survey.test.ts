@@ -8,7 +8,8 @@ import type { GridGeometry } from '../../src/grid/geometry.js';
 import { resolvePlan } from '../../src/survey/params.js';
 import { planSurvey, type PlanInput } from '../../src/survey/plan.js';
 import { programmeFigures, twoWayTimeToMoho, lineFigures } from '../../src/survey/programme.js';
-import { sampleSection, segmentHit } from '../../src/survey/section.js';
+import { sampleSection } from '../../src/survey/section.js';
+import { segmentHit } from '../../src/boundaries/planar.js';
 import { planFromResult } from '../../src/survey/run.js';
 import { runDemo } from '../helpers/demo-run.js';
 
