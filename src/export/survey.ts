@@ -24,6 +24,7 @@ export function surveyGeoJson(sp: SurveyPlan, crs: Crs): Record<string, unknown>
         control_distance_km: l.controlDistanceKm === null ? null : r3(l.controlDistanceKm),
         score: l.score === null ? null : r3(l.score),
         note: l.note ?? null,
+        ties: l.ties ?? null,
         max_twt_to_moho_s: f ? r3(f.maxTwtS) : null,
         record_length_s: f ? f.recordLengthS : null,
         crossings: f ? f.crossings : [],

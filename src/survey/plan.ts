@@ -7,13 +7,20 @@
  *    direction turns by more than `turnAngleDeg` from the segment's start.
  * 3. Per segment, straight parallel dip lines perpendicular to the segment's mean strike (its chord),
  *    `spacingKm` apart and centred on the segment, each running from `overhangLandwardKm` landward
- *    of the taper limit to `overhangOceanwardKm` oceanward of the oceanic limit; strike (tie) lines
- *    across every dip line of the segment along the necking zone, the midline and the first oceanic crust.
- * 4. Proposals within `existingToleranceKm` and `existingToleranceDeg` of an existing line are dropped.
- * 5. Coverage along the midline: distance to the nearest existing line or pick; gaps where it exceeds
- *    half the spacing (the most a programme at that spacing leaves). Dip lines are ranked by the
- *    transition they constrain per line-km: zone width crossed × distance from existing control ÷ length.
- *    Strike lines follow the dip lines in the list (they tie them; cut them last).
+ *    of the taper limit to `overhangOceanwardKm` oceanward of the oceanic limit, and reaching at least
+ *    2 km landward of its necking-zone tie point.
+ * 4. Proposals within `existingToleranceKm` and `existingToleranceDeg` of an existing line are dropped;
+ *    where dip lines of neighbouring segments would cross inside the COT zone (segments fan around a
+ *    bend), the one that constrains less is dropped, and the dropped list says which.
+ * 5. Tie (strike) lines: per midline piece, one continuous line each along the necking zone, the zone
+ *    midline and the first oceanic crust, through the tie point of every kept dip line, 2 km beyond
+ *    the end ones (a choice).
+ * 6. Ranking: dip lines by the transition they constrain per line-km (zone width crossed × distance
+ *    from existing control ÷ length). Each dip line is preceded in the list by the tie pieces that join
+ *    it to the dip lines ranked before it (or a 4 km stub across it), so a programme cut at any dip
+ *    line's cumulative line-km keeps all its dip lines tied.
+ * 7. Coverage along the midline: distance to the nearest existing line or pick; gaps where it exceeds
+ *    half the spacing (the most a programme at that spacing leaves).
  * Lines are straight in the analysis CRS; reported lengths are geodesic (WGS 84).
  */
 
@@ -21,7 +28,7 @@ import { geodesicLength } from '../crs/geodesy.js';
 import { WGS84, type Crs } from '../crs/registry.js';
 import { transformer } from '../crs/transform.js';
 import type { Oceanward } from '../domains/direction.js';
-import { clipLineToPolygon, distanceToControl, pointSegmentDistance, rayHits, type Ring } from '../boundaries/planar.js';
+import { clipLineToPolygon, distanceToControl, pointSegmentDistance, rayHits, segmentHit, type Ring } from '../boundaries/planar.js';
 import { resamplePath } from './section.js';
 import type { PlanParams } from './params.js';
 
@@ -53,6 +60,8 @@ export interface ProposedLine {
   rank: number;
   cumulativeKm: number;
   note?: string;
+  /** Tie lines: the dip lines this piece ties (crosses). */
+  ties?: string[];
 }
 
 export interface Gap {
@@ -68,7 +77,7 @@ export interface Gap {
 
 export interface Plan {
   readonly midline: Ring[];
-  readonly segments: { index: number; strikeDeg: number; coords: Ring }[];
+  readonly segments: { index: number; strikeDeg: number; coords: Ring; piece: number }[];
   readonly lines: ProposedLine[];
   readonly dropped: { id: string; kind: string; reason: string }[];
   readonly coverage: { midline: Ring; chainageKm: number[]; distanceKm: number[] }[];
@@ -152,23 +161,23 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
   const midline = pieces.map((m) => smooth(m, p.smoothingKm * 1000));
   const segments: Plan['segments'] = [];
   const turn = (p.turnAngleDeg * Math.PI) / 180;
-  for (const m of midline) {
+  for (const [pieceIndex, m] of midline.entries()) {
     let start = 0;
     const tangent = (k: number) => angleOf(m[Math.max(0, k - 1)], m[Math.min(m.length - 1, k + 1)]);
     let a0 = tangent(0);
     for (let k = 1; k < m.length; k++) {
       if (angleDiff(tangent(k), a0) > turn || k === m.length - 1) {
         const coords = m.slice(start, k + 1);
-        if (coords.length > 1) segments.push({ index: segments.length, strikeDeg: 0, coords });
+        if (coords.length > 1) segments.push({ index: segments.length, strikeDeg: 0, coords, piece: pieceIndex });
         start = k;
         a0 = tangent(k);
       }
     }
   }
 
-  // 3. Dip lines per segment, then strike lines across them.
-  const lines: ProposedLine[] = [];
+  // 3. Dip lines per segment, each with its tie points (necking zone, zone midline, first oceanic crust).
   const spacing = p.spacingKm * 1000;
+  const dips: DipDraft[] = [];
   for (const seg of segments) {
     const a = seg.coords[0];
     const b = seg.coords[seg.coords.length - 1];
@@ -180,70 +189,43 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
     if (n[0] * dip[0] + n[1] * dip[1] < 0) n = [-n[0], -n[1]];
     const count = Math.floor(len / spacing) + 1;
     const mid: P = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
-    const segDips: { line: ProposedLine; z: { tTaper: number; tOcean: number }; o: P }[] = [];
     for (let q = 0; q < count; q++) {
       const off = (q - (count - 1) / 2) * spacing;
       const o: P = [mid[0] + u[0] * off, mid[1] + u[1] * off];
       const z = zoneCrossing(o, n, reach, inp.taper, inp.oceanic);
       if (!z) continue;
-      const t0 = z.tTaper - p.overhangLandwardKm * 1000;
+      const at = (t: number): P => [o[0] + n[0] * t, o[1] + n[1] * t];
+      let t0 = z.tTaper - p.overhangLandwardKm * 1000;
       const t1 = z.tOcean + p.overhangOceanwardKm * 1000;
-      const coords: Ring = [[o[0] + n[0] * t0, o[1] + n[1] * t0], [o[0] + n[0] * t1, o[1] + n[1] * t1]];
-      const tm = (z.tTaper + z.tOcean) / 2;
-      const zoneMid: P = [o[0] + n[0] * tm, o[1] + n[1] * tm];
-      const line: ProposedLine = {
-        id: '', kind: 'dip', segment: seg.index, coords, lengthKm: 0,
-        zoneWidthKm: (z.tOcean - z.tTaper) / 1000, controlDistanceKm: control(zoneMid[0], zoneMid[1]) / 1000, score: null, rank: 0, cumulativeKm: 0,
-      };
-      segDips.push({ line, z, o });
-    }
-    if (!segDips.length) continue;
-    lines.push(...segDips.map((d) => d.line));
-    // Strike lines: through the mean dip-offset of their reference points, spanning the segment's dip lines.
-    const along = (pt: P) => (pt[0] - mid[0]) * u[0] + (pt[1] - mid[1]) * u[1];
-    const across = (pt: P) => (pt[0] - mid[0]) * n[0] + (pt[1] - mid[1]) * n[1];
-    const firstAlong = along(segDips[0].o) - 2000;
-    const lastAlong = along(segDips[segDips.length - 1].o) + 2000;
-    const strikeAt = (offsets: number[], note: string) => {
-      if (!offsets.length) return;
-      const c = offsets.reduce((s2, v) => s2 + v, 0) / offsets.length;
-      const pt = (al: number): P => [mid[0] + u[0] * al + n[0] * c, mid[1] + u[1] * al + n[1] * c];
-      lines.push({ id: '', kind: 'strike', segment: seg.index, coords: [pt(firstAlong), pt(lastAlong)], lengthKm: 0, zoneWidthKm: null, controlDistanceKm: null, score: null, rank: 0, cumulativeKm: 0, note });
-    };
-    const neck: number[] = [];
-    const midOff: number[] = [];
-    const ocean: number[] = [];
-    for (const d of segDips) {
-      const base = across(d.o);
-      midOff.push(base + (d.z.tTaper + d.z.tOcean) / 2);
-      ocean.push(base + d.z.tOcean + Math.min(5000, (p.overhangOceanwardKm * 1000) / 2));
-      const tn = rayHits(d.o, n, reach, inp.necking).filter((t) => t < d.z.tTaper);
-      const tc = rayHits(d.o, n, reach, inp.coupling).filter((t) => t < d.z.tTaper);
-      if (tn.length && tc.length) neck.push(base + (tn[tn.length - 1] + tc[tc.length - 1]) / 2);
-    }
-    // Dip lines reach landward at least 2 km past the necking-zone strike line, so every dip line ties.
-    if (neck.length) {
-      const c = neck.reduce((s2, v) => s2 + v, 0) / neck.length;
-      for (const d of segDips) {
-        const tNeed = c - across(d.o) - 2000;
-        const start = d.line.coords[0];
-        const tNow = (start[0] - d.o[0]) * n[0] + (start[1] - d.o[1]) * n[1];
-        if (tNeed < tNow) {
-          d.line.coords[0] = [d.o[0] + n[0] * tNeed, d.o[1] + n[1] * tNeed];
-          d.line.note = 'extended landward beyond the overhang to tie the necking-zone strike line';
-        }
+      const tn = rayHits(o, n, reach, inp.necking).filter((t) => t < z.tTaper);
+      const tcp = rayHits(o, n, reach, inp.coupling).filter((t) => t < z.tTaper);
+      const tNeck = tn.length && tcp.length ? (tn[tn.length - 1] + tcp[tcp.length - 1]) / 2 : null;
+      let note: string | undefined;
+      // a dip line reaches at least 2 km landward of its necking-zone tie point, so the tie crosses it
+      if (tNeck !== null && tNeck - 2000 < t0) {
+        t0 = tNeck - 2000;
+        note = 'extended landward beyond the overhang to reach the necking-zone tie line';
       }
+      const tm = (z.tTaper + z.tOcean) / 2;
+      const zoneMid = at(tm);
+      dips.push({
+        line: {
+          id: '', kind: 'dip', segment: seg.index, coords: [at(t0), at(t1)], lengthKm: 0,
+          zoneWidthKm: (z.tOcean - z.tTaper) / 1000, controlDistanceKm: control(zoneMid[0], zoneMid[1]) / 1000, score: null, rank: 0, cumulativeKm: 0, note,
+        },
+        piece: seg.piece,
+        zone: [at(z.tTaper), at(z.tOcean)],
+        tiePoints: { necking: tNeck === null ? null : at(tNeck), midline: zoneMid, oceanic: at(z.tOcean + Math.min(5000, (p.overhangOceanwardKm * 1000) / 2)) },
+      });
     }
-    strikeAt(neck, 'along the necking zone');
-    strikeAt(midOff, 'along the COT zone midline');
-    strikeAt(ocean, 'along the first oceanic crust');
   }
 
   // Licence clipping (longest part kept), then drop near-duplicates of existing lines.
-  const kept: ProposedLine[] = [];
   const dropped: Plan['dropped'] = [];
-  lines.forEach((l, k) => (l.id = `${l.kind === 'dip' ? 'D' : 'S'}${l.segment + 1}-${String(k + 1).padStart(2, '0')}`));
-  for (const l of lines) {
+  dips.forEach((d, k) => (d.line.id = `D${d.line.segment + 1}-${String(k + 1).padStart(2, '0')}`));
+  let kept: DipDraft[] = [];
+  for (const d of dips) {
+    const l = d.line;
     if (p.clipToLicence && inp.licence) {
       const parts = clipLineToPolygon(l.coords, inp.licence);
       if (!parts.length) {
@@ -257,19 +239,58 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
       dropped.push({ id: l.id, kind: l.kind, reason: `within ${p.existingToleranceKm} km and ${p.existingToleranceDeg}° of existing line ${near}` });
       continue;
     }
-    kept.push(l);
+    kept.push(d);
   }
 
-  // Lengths (geodesic), scores, ranks and cumulative line-km.
+  // Lengths (geodesic) and scores.
   const toLL = transformer(inp.crs, WGS84);
-  for (const l of kept) {
-    const ll = resamplePath(l.coords, inp.crs.units === 'degree' ? 0.01 : 1000).flatMap((q) => toLL.forward(q));
-    l.lengthKm = geodesicLength(ll) / 1000;
-    if (l.kind === 'dip') l.score = ((l.zoneWidthKm ?? 0) * Math.min(l.controlDistanceKm ?? 0, reach / 1000)) / l.lengthKm;
+  const geodesicKm = (coords: Ring) => geodesicLength(resamplePath(coords, inp.crs.units === 'degree' ? 0.01 : 1000).flatMap((q) => toLL.forward(q))) / 1000;
+  for (const { line: l } of kept) {
+    l.lengthKm = geodesicKm(l.coords);
+    l.score = ((l.zoneWidthKm ?? 0) * Math.min(l.controlDistanceKm ?? 0, reach / 1000)) / l.lengthKm;
   }
-  kept.sort((a, b) => (a.kind === b.kind ? (b.score ?? 0) - (a.score ?? 0) : a.kind === 'dip' ? -1 : 1));
+
+  // Dip lines of neighbouring segments must not cross inside the zone: where two do, the one that
+  // constrains less (lower score) is dropped, and the list says so.
+  kept.sort((x, y) => (y.line.score ?? 0) - (x.line.score ?? 0));
+  const survivors: DipDraft[] = [];
+  for (const d of kept) {
+    const hit = survivors.find((o) => crossInsideZone(d, o));
+    if (hit) dropped.push({ id: d.line.id, kind: 'dip', reason: `crosses ${hit.line.id} (segment ${hit.line.segment + 1}) inside the COT zone where the segments fan; ${hit.line.id} constrains more` });
+    else survivors.push(d);
+  }
+  kept = survivors;
+
+  // 4. Tie lines: one continuous line per kind and midline piece through the tie points of its dip
+  // lines, in along-strike order; 5. ranking: each dip line comes with the tie pieces that join it to
+  // the dip lines already ranked (or a short stub across it), listed just before it, so a programme
+  // cut at any dip line's cumulative line-km keeps every dip line in it tied.
+  const ties = buildTies(kept, strike, 2000);
+  const lines: ProposedLine[] = [];
+  let tieCount = 0;
+  for (const d of kept) {
+    for (const t of ties) {
+      const k = t.dips.indexOf(d);
+      if (k < 0) continue;
+      for (const part of t.claim(k)) {
+        let coords = part.coords;
+        if (p.clipToLicence && inp.licence) {
+          const clipped = clipLineToPolygon(coords, inp.licence);
+          if (!clipped.length) continue;
+          coords = clipped.reduce((best, q) => (pathLength(q) > pathLength(best) ? q : best));
+        }
+        if (coords.length < 2 || pathLength(coords) < 1) continue;
+        tieCount++;
+        lines.push({
+          id: `S${d.line.segment + 1}-${String(tieCount).padStart(2, '0')}`, kind: 'strike', segment: d.line.segment, coords, lengthKm: geodesicKm(coords),
+          zoneWidthKm: null, controlDistanceKm: null, score: null, rank: 0, cumulativeKm: 0, note: `tie ${t.note}`, ties: part.dips.map((q) => q.line.id),
+        });
+      }
+    }
+    lines.push(d.line);
+  }
   let cum = 0;
-  kept.forEach((l, k) => {
+  lines.forEach((l, k) => {
     l.rank = k + 1;
     cum += l.lengthKm;
     l.cumulativeKm = cum;
@@ -302,7 +323,7 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
   }
   gaps.sort((a, b) => b.lengthKm - a.lengthKm);
   gaps.forEach((g, k) => (g.rank = k + 1));
-  return { midline, segments, lines: kept, dropped, coverage, gaps, warnings };
+  return { midline, segments, lines, dropped, coverage, gaps, warnings };
 }
 
 function pathLength(r: Ring): number {
@@ -330,4 +351,122 @@ function nearExisting(coords: Ring, existing: PlanInput['existing'], tol: number
     if (near >= 0.5 * samples.length) return e.name;
   }
   return null;
+}
+
+interface DipDraft {
+  line: ProposedLine;
+  piece: number;
+  /** Where the line crosses the taper limit and the oceanic limit. */
+  zone: [P, P];
+  tiePoints: { necking: P | null; midline: P; oceanic: P };
+}
+
+/** Whether two dip lines cross at a point inside the COT zone of either. */
+function crossInsideZone(a: DipDraft, b: DipDraft): boolean {
+  const [a0, a1] = [a.line.coords[0], a.line.coords[a.line.coords.length - 1]];
+  const [b0, b1] = [b.line.coords[0], b.line.coords[b.line.coords.length - 1]];
+  const t = segmentHit(a0, a1, b0, b1);
+  if (t === null) return false;
+  const x: P = [a0[0] + (a1[0] - a0[0]) * t, a0[1] + (a1[1] - a0[1]) * t];
+  const within = (d: DipDraft) => {
+    const [z0, z1] = d.zone;
+    const len = Math.hypot(z1[0] - z0[0], z1[1] - z0[1]);
+    const s = ((x[0] - z0[0]) * (z1[0] - z0[0]) + (x[1] - z0[1]) * (z1[1] - z0[1])) / (len * len);
+    return s >= 0 && s <= 1;
+  };
+  return within(a) || within(b);
+}
+
+interface TieLine {
+  note: string;
+  /** Dip lines along the tie, in along-strike order. */
+  dips: DipDraft[];
+  /** The parts of the tie needed to join dip k to the dips already claimed (or a stub across it). */
+  claim: (k: number) => { coords: Ring; dips: DipDraft[] }[];
+}
+
+/**
+ * Continuous tie lines per kind (necking zone, midline, first oceanic crust) and midline piece:
+ * a polyline through the tie points of the dip lines, extended `ext` beyond the end ones. Parts are
+ * handed out by arc length, so claimed parts never overlap and together stay one line.
+ */
+function buildTies(dips: DipDraft[], strike: P, ext: number): TieLine[] {
+  const out: TieLine[] = [];
+  const kinds: [keyof DipDraft['tiePoints'], string][] = [['necking', 'along the necking zone'], ['midline', 'along the COT zone midline'], ['oceanic', 'along the first oceanic crust']];
+  const pieces = [...new Set(dips.map((d) => d.piece))];
+  for (const piece of pieces) {
+    for (const [kind, note] of kinds) {
+      const mine = dips.filter((d) => d.piece === piece && d.tiePoints[kind]).sort((a, b) => proj(a.tiePoints[kind]!, strike) - proj(b.tiePoints[kind]!, strike));
+      if (mine.length === 0) continue;
+      const pts = mine.map((d) => d.tiePoints[kind]!);
+      const first = pts[0];
+      const last = pts[pts.length - 1];
+      const dirA = pts.length > 1 ? unit(pts[1], first) : [-strike[0], -strike[1]];
+      const dirB = pts.length > 1 ? unit(pts[pts.length - 2], last) : strike;
+      const path: Ring = [[first[0] + dirA[0] * ext, first[1] + dirA[1] * ext], ...pts, [last[0] + dirB[0] * ext, last[1] + dirB[1] * ext]];
+      const s = [0];
+      for (let k = 1; k < path.length; k++) s.push(s[k - 1] + Math.hypot(path[k][0] - path[k - 1][0], path[k][1] - path[k - 1][1]));
+      const at = mine.map((_, k) => s[k + 1]);
+      const taken = new Array<boolean>(mine.length).fill(false);
+      const covered: [number, number][] = [];
+      out.push({
+        note,
+        dips: mine,
+        claim: (k) => {
+          let lo = -1;
+          for (let q = k - 1; q >= 0; q--) if (taken[q]) { lo = q; break; }
+          let hi = -1;
+          for (let q = k + 1; q < mine.length; q++) if (taken[q]) { hi = q; break; }
+          taken[k] = true;
+          const from = lo >= 0 ? at[lo] : Math.max(0, at[k] - ext);
+          const to = hi >= 0 ? at[hi] : Math.min(s[s.length - 1], at[k] + ext);
+          const parts: { coords: Ring; dips: DipDraft[] }[] = [];
+          for (const [a, b] of subtract([from, to], covered)) {
+            if (b - a < 1) continue;
+            parts.push({ coords: subPath(path, s, a, b), dips: mine.filter((_, q) => at[q] >= a - 1e-6 && at[q] <= b + 1e-6) });
+          }
+          covered.push([from, to]);
+          return parts;
+        },
+      });
+    }
+  }
+  return out;
+}
+
+const proj = (q: P, d: P) => q[0] * d[0] + q[1] * d[1];
+function unit(from: P, to: P): P {
+  const l = Math.hypot(to[0] - from[0], to[1] - from[1]) || 1;
+  return [(to[0] - from[0]) / l, (to[1] - from[1]) / l];
+}
+
+/** [a, b] minus the union of intervals. */
+function subtract(iv: [number, number], cover: [number, number][]): [number, number][] {
+  let parts: [number, number][] = [iv];
+  for (const [c0, c1] of cover) {
+    const next: [number, number][] = [];
+    for (const [a, b] of parts) {
+      if (c1 <= a || c0 >= b) next.push([a, b]);
+      else {
+        if (c0 > a) next.push([a, c0]);
+        if (c1 < b) next.push([c1, b]);
+      }
+    }
+    parts = next;
+  }
+  return parts;
+}
+
+/** The part of a polyline between arc lengths a and b (s = cumulative arc length per vertex). */
+function subPath(path: Ring, s: number[], a: number, b: number): Ring {
+  const point = (t: number): P => {
+    let k = 1;
+    while (k < s.length - 1 && s[k] < t) k++;
+    const f = s[k] > s[k - 1] ? (t - s[k - 1]) / (s[k] - s[k - 1]) : 0;
+    return [path[k - 1][0] + (path[k][0] - path[k - 1][0]) * f, path[k - 1][1] + (path[k][1] - path[k - 1][1]) * f];
+  };
+  const out: Ring = [point(a)];
+  for (let k = 0; k < path.length; k++) if (s[k] > a && s[k] < b) out.push([path[k][0], path[k][1]]);
+  out.push(point(b));
+  return out;
 }

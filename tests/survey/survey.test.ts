@@ -16,14 +16,20 @@ import { runDemo } from '../helpers/demo-run.js';
 type P = [number, number];
 const crs = crsFromEpsg(32631);
 
+/** Whether a two-point line meets a polyline (end points included). */
+function crosses(line: P[], path: P[]): boolean {
+  for (let q = 0; q + 1 < path.length; q++) if (segmentHit(line[0], line[line.length - 1], path[q], path[q + 1]) !== null) return true;
+  return false;
+}
+
 /** A synthetic transition zone with a known curved midline: limits at x = 500 km ± 10 km + 30 km·sin(y/60 km). */
-function zone(): PlanInput {
+function zone(amplitude = 30_000, wavelength = 60_000): PlanInput {
   const taper: P[] = [];
   const oceanic: P[] = [];
   const necking: P[] = [];
   const coupling: P[] = [];
   for (let y = 4_900_000; y <= 5_300_000; y += 500) {
-    const c = 500_000 + 30_000 * Math.sin((y - 4_900_000) / 60_000);
+    const c = 500_000 + amplitude * Math.sin((y - 4_900_000) / wavelength);
     taper.push([c - 10_000, y]);
     oceanic.push([c + 10_000, y]);
     necking.push([c - 60_000, y]);
@@ -104,8 +110,13 @@ describe('proposed lines on a synthetic curved zone', () => {
   it('lengths are geodesic: a straight UTM line matches the WGS84 geodesic between its ends (Karney 2013) to 0.1 m', () => {
     const t = transformer(crs, WGS84);
     for (const l of plan.lines) {
-      const [a, b] = [t.forward(l.coords[0]), t.forward(l.coords[l.coords.length - 1])];
-      expect(Math.abs(l.lengthKm * 1000 - geodesicDistance(a[0], a[1], b[0], b[1]))).toBeLessThan(0.1);
+      // dip lines are straight; tie lines are polylines through their tie points: the sum of their legs
+      let legs = 0;
+      for (let k = 0; k + 1 < l.coords.length; k++) {
+        const [a, b] = [t.forward(l.coords[k]), t.forward(l.coords[k + 1])];
+        legs += geodesicDistance(a[0], a[1], b[0], b[1]);
+      }
+      expect(Math.abs(l.lengthKm * 1000 - legs)).toBeLessThan(0.1 * (l.coords.length - 1));
     }
   });
 
@@ -115,6 +126,57 @@ describe('proposed lines on a synthetic curved zone', () => {
     const again = planSurvey({ ...inp, existing: [{ name: 'OLD-7', coords: shifted }] }, params);
     expect(again.dropped.map((d) => d.reason)).toEqual(expect.arrayContaining([expect.stringMatching(/existing line OLD-7/)]));
     expect(again.lines.filter((l) => l.kind === 'dip').length).toBe(dips.length - 1);
+  });
+});
+
+describe('fanned segments and ties in any programme cut', () => {
+  // a sharper bend so that segments fan: limits at x = 500 km ± 10 km + 60 km·sin(y/50 km)
+  const inp = zone(60_000, 50_000);
+  const plan = planSurvey(inp, resolvePlan({ spacingKm: 12, overhangLandwardKm: 15, overhangOceanwardKm: 15, smoothingKm: 10, turnAngleDeg: 12 }));
+  const dips = plan.lines.filter((l) => l.kind === 'dip');
+  const ties = plan.lines.filter((l) => l.kind === 'strike');
+
+  it('no two kept dip lines cross inside the zone, and a dropped crossing one is named', () => {
+    expect(plan.segments.length).toBeGreaterThan(3);
+    const insideZone = (x: number, y: number) => {
+      const c = 500_000 + 60_000 * Math.sin((y - 4_900_000) / 50_000);
+      return Math.abs(x - c) <= 10_000;
+    };
+    for (let a = 0; a < dips.length; a++) {
+      for (let b = a + 1; b < dips.length; b++) {
+        const [p0, p1] = [dips[a].coords[0], dips[a].coords[1]];
+        const t = segmentHit(p0, p1, dips[b].coords[0], dips[b].coords[1]);
+        if (t === null) continue;
+        expect(insideZone(p0[0] + (p1[0] - p0[0]) * t, p0[1] + (p1[1] - p0[1]) * t), `${dips[a].id} × ${dips[b].id}`).toBe(false);
+      }
+    }
+    expect(plan.dropped.some((d) => /crosses D\d+-\d+ .*inside the COT zone/.test(d.reason))).toBe(true);
+  });
+
+  it('tie lines are continuous across the segments they tie', () => {
+    // every tie piece joins the others of its kind end to end: three continuous lines in all
+    const byNote = new Map<string, P[][]>();
+    for (const t of ties) byNote.set(t.note!, [...(byNote.get(t.note!) ?? []), t.coords]);
+    expect(byNote.size).toBe(3);
+    for (const [note, parts] of byNote) {
+      const ends = parts.flatMap((q) => [q[0], q[q.length - 1]]);
+      const key = (q: P) => `${q[0].toFixed(3)},${q[1].toFixed(3)}`;
+      const count = new Map<string, number>();
+      for (const e of ends) count.set(key(e), (count.get(key(e)) ?? 0) + 1);
+      const loose = [...count.values()].filter((v) => v === 1).length;
+      expect(loose, note).toBe(2); // one line: only its two ends are unmatched
+      const segs = new Set(ties.filter((t) => t.note === note).flatMap((t) => t.ties!).map((id) => dips.find((d) => d.id === id)!.segment));
+      expect(segs.size, note).toBeGreaterThan(1);
+    }
+  });
+
+  it('every dip line is crossed by a tie line in any programme cut at its cumulative line-km', () => {
+    for (const d of dips) {
+      const cut = plan.lines.filter((l) => l.cumulativeKm <= d.cumulativeKm + 1e-9);
+      for (const kept of cut.filter((l) => l.kind === 'dip')) {
+        expect(cut.some((t) => t.kind === 'strike' && crosses(kept.coords, t.coords)), `${kept.id} in the cut at ${d.id}`).toBe(true);
+      }
+    }
   });
 });
 
@@ -190,8 +252,9 @@ describe('planning on the invented demo', async () => {
     expect(top.maxDistanceKm).toBeGreaterThan(30);
   });
   it('ranks first the dip line in the largest gap', () => {
-    const first = sp.plan.lines[0];
-    expect(first.kind).toBe('dip');
+    const first = sp.plan.lines.find((l) => l.kind === 'dip')!;
+    // only its tie stubs come before it
+    expect(sp.plan.lines.slice(0, first.rank - 1).every((l) => l.kind === 'strike' && l.ties?.includes(first.id))).toBe(true);
     const midY = (first.coords[0][1] + first.coords[1][1]) / 2;
     expect(midY).toBeGreaterThan(6_060_000);
     expect(midY).toBeLessThan(6_125_000);
@@ -202,11 +265,10 @@ describe('planning on the invented demo', async () => {
       expect(l.cumulativeKm).toBeCloseTo(sum, 9);
     }
   });
-  it('every strike line crosses every dip line of its segment (ties)', () => {
+  it('every tie line crosses the dip lines it says it ties', () => {
     for (const s of sp.plan.lines.filter((l) => l.kind === 'strike')) {
-      for (const d of sp.plan.lines.filter((l) => l.kind === 'dip' && l.segment === s.segment)) {
-        expect(segmentHit(s.coords[0], s.coords[1], d.coords[0], d.coords[1]), `${s.id} × ${d.id}`).not.toBeNull();
-      }
+      expect(s.ties!.length).toBeGreaterThan(0);
+      for (const id of s.ties!) expect(crosses(sp.plan.lines.find((l) => l.id === id)!.coords, s.coords), `${s.id} × ${id}`).toBe(true);
     }
   });
 });
