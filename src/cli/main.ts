@@ -49,6 +49,8 @@ boundaries from depth grids (GeoTIFF or XYZ text; metres or km, depth or elevati
                        | onlap, and "line"): boundaries pass through them
   --isochrons F        magnetic isochrons (GeoJSON LineStrings with "age_ma")
   --crust F            crust-type polygons (GeoJSON, "crust": continental | oceanic | transition)
+  --exclude-pick IDS   picks to leave out (comma-separated ids, as summary.json lists them: the
+                       feature's "id", else "LINE/KIND", else "pick N"); still checked and reported
   --params F.json      parameters (keys below); unknown keys are an error
   --out DIR            output folder (default ./taperline-out)
   --ROLE-units m|km|ft       override detected units (ROLE = seabed, top-basement, moho)
@@ -71,10 +73,21 @@ and in the analysis CRS).
 
 demo: run synth on the built-in invented demo scenario (fixtures/demo, generated if missing).
 
+Which threshold places which line (each calibrated only by picks of its own kind):
+  crustal-taper-limit    taperThreshold, or the thickness at continental-limit picks
+  oceanic-limit          oceanicThreshold (landward limit of oceanic crust), or the thickness at
+                         oceanic-limit picks; crust between the two lines is the COT zone
+  oldest-onlapped-crust  the oceanic limit moved oceanward by the offset seen at onlap picks; without
+                         onlap picks it is the oceanic limit and says so (evidence proxy)
+  necking-line           neckingFraction × tc0;   coupling-line   couplingThickness
+summary.json (lines_placed_by) and every line's placed_by property say which applied. Picks that
+disagree with their neighbours or lie far from the uncalibrated line are listed as suspect.
+
 Writes DIR/boundaries.geojson (inside the licence when one is given; then also
 boundaries-whole-grid.geojson), DIR/domains.geojson, DIR/grids/<name>.tif (one Float32 GeoTIFF per
-derived grid, metres unless stated; domains.tif as UInt8) and DIR/summary.json (parameters, inputs
-with sha256, detections, flagged cells, areas, lengths, warnings). Files appear only when the run
+derived grid, metres unless stated, each no data outside the domains where its model applies;
+domains.tif and unbounded-beta.tif as UInt8) and DIR/summary.json (parameters, inputs with sha256,
+detections, the rule of every grid, flagged cells, areas, lengths, suspect picks, warnings). Files appear only when the run
 succeeds. Exit status: 0 success; 2 bad input (message names the file and the problem); 1 otherwise.
 
 Params file keys (JSON object; every key optional):
@@ -109,7 +122,7 @@ function parseArgs(argv: string[]): { command: string; flags: Map<string, string
 const GRID_ROLES = ['seabed', 'top-basement', 'moho'] as const;
 const PLAN_FLAGS = ['existing', 'spacing', 'overhang-landward', 'overhang-oceanward'];
 const KNOWN = new Set([
-  'top-basement', 'moho', 'seabed', 'licence', 'lines', 'picks', 'isochrons', 'crust', 'params', 'out',
+  'top-basement', 'moho', 'seabed', 'licence', 'lines', 'picks', 'isochrons', 'crust', 'params', 'out', 'exclude-pick',
   ...GRID_ROLES.flatMap((r) => [`${r}-units`, `${r}-sign`, `${r}-nodata`, `${r}-crs`, `${r}-depth`]),
 ]);
 
@@ -196,7 +209,9 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
   let result;
   let files: Record<string, Uint8Array>;
   try {
-    result = runPipeline(inputs, { params: pipelineParams });
+    const exclude = str(flags, 'exclude-pick');
+    const excludePicks = exclude ? exclude.split(',').map((q) => q.trim()).filter(Boolean) : [];
+    result = runPipeline(inputs, { params: pipelineParams, excludePicks });
     if (mode === 'plan') {
       const sp = planFromResult(result, planParams);
       const enc = new TextEncoder();

@@ -33,7 +33,10 @@ describe('taperline CLI', () => {
   it('--help documents every flag and every params-file key; --version prints the version', () => {
     const h = taperline(['--help']);
     expect(h.status).toBe(0);
-    for (const flag of ['--top-basement', '--moho', '--seabed', '--licence', '--picks', '--isochrons', '--params', '--out', 'demo']) expect(h.stdout).toContain(flag);
+    for (const flag of ['--top-basement', '--moho', '--seabed', '--licence', '--picks', '--isochrons', '--exclude-pick', '--params', '--out', 'demo']) expect(h.stdout).toContain(flag);
+    // which threshold places which line
+    expect(h.stdout).toMatch(/oceanic-limit +oceanicThreshold/);
+    expect(h.stdout).toMatch(/crustal-taper-limit +taperThreshold/);
     for (const s of PARAM_SPECS) expect(h.stdout).toContain(s.key);
     expect(h.stdout).toMatch(/qualified professionals/);
     const v = taperline(['--version']);
@@ -83,6 +86,20 @@ describe('taperline CLI', () => {
     const s = JSON.parse(readFileSync(join(f('minimal'), 'summary.json'), 'utf8'));
     expect(s.warnings.join()).toMatch(/no seabed grid/);
     expect(readdirSync(f('minimal')).filter((n) => n.startsWith('.'))).toEqual([]);
+  });
+});
+
+describe('excluding a pick', () => {
+  it('--exclude-pick leaves the pick out, and the summary says so', () => {
+    writeFileSync(f('picks.geojson'), demoFiles()['picks.geojson']);
+    const r = synth(['--seabed', f('seabed.tif'), '--picks', f('picks.geojson'), '--exclude-pick', 'VX-105/continental-limit'], f('excl'));
+    expect(r.status).toBe(0);
+    const s = JSON.parse(readFileSync(join(f('excl'), 'summary.json'), 'utf8'));
+    expect(s.evidence.excluded_picks).toEqual(['VX-105/continental-limit']);
+    expect(s.evidence.calibrated['crustal-taper-limit']).toBe(2);
+    expect(s.lines_placed_by['crustal-taper-limit']).toMatch(/calibrated to 2 continental-limit picks/);
+    const none = synth(['--picks', f('picks.geojson'), '--exclude-pick', 'no-such-pick'], f('excl2'));
+    expect(none.stderr).toMatch(/excluded pick "no-such-pick" is not in the picks file/);
   });
 });
 
