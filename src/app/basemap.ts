@@ -22,11 +22,13 @@ export const COLOURS = {
 // lines stay apart without colour too.
 export const BOUNDARY_STYLES: { kind: string; label: string; colour: string; dash: number[] | null; width: number }[] = [
   { kind: 'crustal-taper-limit', label: 'Crustal taper limit', colour: '#D55E00', dash: null, width: 3 },
-  { kind: 'oldest-onlapped-crust', label: 'Oldest onlapped (oceanic) crust', colour: '#0072B2', dash: [3, 1.5], width: 3 },
+  { kind: 'oceanic-limit', label: 'Landward limit of oceanic crust', colour: '#0072B2', dash: null, width: 3 },
+  { kind: 'oldest-onlapped-crust', label: 'Oldest onlapped crust (dashed; the oceanic limit where no onlap picks)', colour: '#0072B2', dash: [3, 1.5], width: 3 },
   { kind: 'necking-line', label: 'Necking line (0.8 · tc0)', colour: '#000000', dash: [0.6, 1.4], width: 2.5 },
   { kind: 'coupling-line', label: 'Coupling line (10 km crust)', colour: '#CC79A7', dash: [4, 1.5, 0.8, 1.5], width: 2.5 },
 ];
 export const COT_FILL = '#E69F00';
+export const SUSPECT_PICK = '#e63946';
 
 export function landGeoJson(): GeoJSON.FeatureCollection {
   // topojson-client's feature() returns a FeatureCollection for a GeometryCollection object.
@@ -94,15 +96,24 @@ export function baseStyle(): StyleSpecification {
         id: `casing-${s.kind}`,
         type: 'line' as const,
         source: 'boundaries',
-        filter: ['==', ['get', 'kind'], s.kind] as ['==', ['get', string], string],
+        filter: ['all', ['==', ['get', 'kind'], s.kind], ['!=', ['get', 'far_from_control'], true]] as never,
         layout: { 'line-join': 'round' as const },
         paint: { 'line-color': '#ffffff', 'line-opacity': 0.85, 'line-width': ['case', ['==', ['get', 'evidence'], 'picks'], s.width + 3, s.width + 1.5] as never },
+      })),
+      // proxy pieces far from every pick and seismic line: faded, thin, no casing
+      ...BOUNDARY_STYLES.map((s) => ({
+        id: `bfar-${s.kind}`,
+        type: 'line' as const,
+        source: 'boundaries',
+        filter: ['all', ['==', ['get', 'kind'], s.kind], ['==', ['get', 'far_from_control'], true]] as never,
+        layout: { 'line-cap': 'butt' as const, 'line-join': 'round' as const },
+        paint: { 'line-color': s.colour, 'line-opacity': 0.45, 'line-width': Math.max(1, s.width - 1.5), ...(s.dash ? { 'line-dasharray': s.dash } : {}) },
       })),
       ...BOUNDARY_STYLES.map((s) => ({
         id: `b-${s.kind}`,
         type: 'line' as const,
         source: 'boundaries',
-        filter: ['==', ['get', 'kind'], s.kind] as ['==', ['get', string], string],
+        filter: ['all', ['==', ['get', 'kind'], s.kind], ['!=', ['get', 'far_from_control'], true]] as never,
         layout: { 'line-cap': 'butt' as const, 'line-join': 'round' as const },
         paint: {
           'line-color': s.colour,
@@ -128,7 +139,13 @@ export function baseStyle(): StyleSpecification {
         id: 'picks',
         type: 'circle',
         source: 'picks',
-        paint: { 'circle-radius': 5, 'circle-color': COLOURS.picks, 'circle-stroke-color': '#000', 'circle-stroke-width': 1.5 },
+        paint: {
+          'circle-radius': ['case', ['==', ['get', 'suspect'], true], 7, 5] as never,
+          // excluded: grey; suspect: red; otherwise white
+          'circle-color': ['case', ['==', ['get', 'excluded'], true], '#9e9e9e', ['==', ['get', 'suspect'], true], SUSPECT_PICK, COLOURS.picks] as never,
+          'circle-stroke-color': '#000',
+          'circle-stroke-width': 1.5,
+        },
       },
     ],
   };

@@ -36,6 +36,7 @@ export const DOMAIN_STYLES: DomainStyle[] = [
   { code: 3, name: 'hyperextended continental', colour: [232, 212, 150] },
   { code: 4, name: 'transition (exhumed mantle or unresolved)', colour: [160, 150, 205] },
   { code: 5, name: 'oceanic', colour: [52, 110, 170] },
+  { code: 6, name: 'Moho not imaged (basement picked, no Moho)', colour: [158, 158, 158] },
 ];
 
 export interface RampSpec {

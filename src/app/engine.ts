@@ -100,7 +100,7 @@ export class Engine {
     this.worker.postMessage({ type: 'remove', id } satisfies ToWorker);
   }
 
-  run(params: Record<string, unknown>, outlines = false): Promise<DisplayResult> {
+  run(params: Record<string, unknown>, outlines = false, excludePicks: string[] = []): Promise<DisplayResult> {
     const runId = ++this.runId;
     const grids: Partial<Record<GridRole, string>> = {};
     const vectors: Partial<Record<VectorRole, string>> = {};
@@ -109,7 +109,7 @@ export class Engine {
       if (f.kind === 'grid') grids[f.role as GridRole] = f.id;
       else vectors[f.role as VectorRole] = f.id;
     }
-    return this.call(`run:${runId}`, { type: 'run', runId, grids, vectors, params, outlines });
+    return this.call(`run:${runId}`, { type: 'run', runId, grids, vectors, params, outlines, excludePicks });
   }
 
   exportAll(version: string): Promise<Record<string, ArrayBuffer>> {

@@ -9,12 +9,12 @@ import { MapboxOverlay } from '@deck.gl/mapbox';
 import { BitmapLayer } from '@deck.gl/layers';
 import { WGS84 } from '../crs/registry.js';
 import { transformer } from '../crs/transform.js';
-import { DERIVED } from '../derive/grids.js';
+import { APPLIES_TEXT, DERIVED } from '../derive/grids.js';
 import { guessRole } from '../io/detect.js';
 import { parseProject, toBase64, fromBase64, PROJECT_FORMAT, PROJECT_VERSION, type Project } from '../io/project.js';
 import { DEFAULT_PARAMS, PARAM_SPECS, resolveParams, type ParamSpec } from '../params.js';
-import { baseStyle, BOUNDARY_STYLES, COT_FILL, graticule } from './basemap.js';
-import { colourBlock, displayRange, DOMAIN_STYLES, UNBOUNDED_COLOUR, viridis, type RampSpec } from './colour.js';
+import { baseStyle, BOUNDARY_STYLES, COT_FILL, graticule, SUSPECT_PICK } from './basemap.js';
+import { colourBlock, displayRange, DOMAIN_STYLES, viridis, type RampSpec } from './colour.js';
 import { clear, download, fmt, h } from './dom.js';
 import { Engine, type LoadedFile } from './engine.js';
 import type { DisplayResult, GridRole, VectorRole } from './messages.js';
@@ -55,6 +55,10 @@ const state = {
   running: false,
   rerun: false,
   paramErrors: {} as Record<string, string>,
+  /** Survey-planning values the user set; saved with the project. */
+  plan: {} as Record<string, unknown>,
+  /** Picks the user excluded (ids); saved with the project. */
+  excludePicks: [] as string[],
 };
 
 let nextId = 1;
@@ -266,14 +270,14 @@ function renderVectors(): void {
   };
   setSource('licence', vec('licence'));
   setSource('seismic', vec('lines'));
-  setSource('picks', vec('picks'));
+  setSource('picks', r ? r.picks : vec('picks'));
   setSource('isochrons', vec('isochrons'));
   applyVisibility();
 }
 
 function applyVisibility(): void {
   const vis = (id: string, on: boolean) => map.getLayer(id) && map.setLayoutProperty(id, 'visibility', on ? 'visible' : 'none');
-  for (const s of BOUNDARY_STYLES) (vis(`b-${s.kind}`, state.visible.boundaries), vis(`casing-${s.kind}`, state.visible.boundaries));
+  for (const s of BOUNDARY_STYLES) (vis(`b-${s.kind}`, state.visible.boundaries), vis(`bfar-${s.kind}`, state.visible.boundaries), vis(`casing-${s.kind}`, state.visible.boundaries));
   vis('cot-zone', state.visible.cot);
   vis('licence', state.visible.licence);
   vis('seismic', state.visible.seismic);
@@ -320,23 +324,31 @@ function inspect(lon: number, lat: number): void {
       for (const info of DERIVED) {
         const v = r.grids[info.name][k];
         const digits = info.unit === 'm' ? 0 : info.unit === 'Ma' ? 1 : 3;
-        rows.push([info.name.replace(/-/g, ' '), v === Infinity ? 'unbounded (+∞)' : `${fmt(v, digits)}${Number.isFinite(v) && info.unit ? ' ' + info.unit : ''}`]);
+        const applies = info.applies === 'all' || (info.applies === 'continental' ? d >= 1 && d <= 3 : d === 5);
+        const text = Number.isFinite(v) ? `${fmt(v, digits)}${info.unit ? ' ' + info.unit : ''}` : !applies ? `— (${info.applies === 'continental' ? 'continental domains only' : 'oceanic crust only'})` : '—';
+        rows.push([info.name.replace(/-/g, ' '), text]);
       }
     } else rows.push(['', 'outside the analysis grid']);
   }
   inspectBox.append(h('table', {}, ...rows.map(([a, b]) => h('tr', {}, h('th', { text: a }), h('td', { text: b })))));
 }
 
-const clickable = ['cot-zone', ...BOUNDARY_STYLES.map((s) => `b-${s.kind}`)];
+const lineLayers = BOUNDARY_STYLES.flatMap((s) => [`b-${s.kind}`, `bfar-${s.kind}`]);
+const clickable = ['cot-zone', 'picks', ...lineLayers];
 map.on('click', (e: MapMouseEvent) => {
   if (drawing) {
     drawing.push([e.lngLat.lng, e.lngLat.lat]);
     showDrawn();
     return;
   }
-  // priority: a boundary line, then a seismic line (its section), then the COT zone fill
+  // priority: a pick, a boundary line, then a seismic line (its section), then the COT zone fill
   const on = (ids: string[]) => map.queryRenderedFeatures(e.point, { layers: ids.filter((id) => map.getLayer(id)) });
-  let hits = on(BOUNDARY_STYLES.map((st) => `b-${st.kind}`));
+  const pickHits = on(['picks']);
+  if (pickHits.length) {
+    pickPopup(pickHits[0].properties as Record<string, unknown>, e.lngLat);
+    return;
+  }
+  let hits = on(lineLayers);
   if (!hits.length) {
     const lineHits = on(['proposals', 'seismic']);
     if (lineHits.length) {
@@ -353,6 +365,38 @@ map.on('click', (e: MapMouseEvent) => {
   const table = h('table', { class: 'props' }, ...Object.entries(p).map(([k, v]) => h('tr', {}, h('th', { text: k.replace(/_/g, ' ') }), h('td', { text: typeof v === 'object' ? JSON.stringify(v) : String(v) }))));
   new maplibregl.Popup({ maxWidth: '380px' }).setLngLat(e.lngLat).setDOMContent(h('div', { class: 'popup', id: 'boundary-popup' }, table)).addTo(map);
 });
+/** A pick's popup: what it is, what the checks found (with the numbers), and exclude / use again. */
+function pickPopup(p: Record<string, unknown>, at: maplibregl.LngLat): void {
+  const id = String(p.id);
+  const reasons = (typeof p.reasons === 'string' ? JSON.parse(p.reasons) : p.reasons ?? []) as string[];
+  const excluded = state.excludePicks.includes(id);
+  const km = (v: unknown) => (v === null || v === undefined || v === 'null' ? '—' : `${fmt(Number(v) / 1000, 2)} km`);
+  const rows: [string, string][] = [
+    ['pick', id],
+    ['kind', String(p.kind)],
+    ['seismic line', p.line && p.line !== 'null' ? String(p.line) : '—'],
+    ['crustal thickness at the pick', km(p.thickness_m)],
+    [p.kind === 'onlap' ? 'neighbours’ offset (median)' : 'neighbours’ thickness (median)', km(p.trend_m)],
+    ['departure from the neighbours', km(p.departure_m)],
+    ['distance from the uncalibrated line', km(p.proxy_distance_m)],
+    ['status', excluded ? 'excluded by you: not used to place any line' : p.suspect === true || p.suspect === 'true' ? 'suspect: ' + reasons.join('; ') : 'consistent with its neighbours'],
+  ];
+  const button = h('button', {
+    class: 'small',
+    id: 'pick-exclude',
+    onclick: () => {
+      state.excludePicks = excluded ? state.excludePicks.filter((q) => q !== id) : [...state.excludePicks, id];
+      popup.remove();
+      scheduleRun();
+      autosave();
+    },
+  }, excluded ? 'Use this pick again' : 'Exclude this pick');
+  const popup = new maplibregl.Popup({ maxWidth: '380px' })
+    .setLngLat(at)
+    .setDOMContent(h('div', { class: 'popup', id: 'pick-popup' }, h('table', { class: 'props' }, ...rows.map(([a, b]) => h('tr', {}, h('th', { text: a }), h('td', { text: b })))), button))
+    .addTo(map);
+}
+
 for (const id of [...clickable, 'proposals', 'seismic']) {
   map.on('mouseenter', id, () => (map.getCanvas().style.cursor = 'pointer'));
   map.on('mouseleave', id, () => (map.getCanvas().style.cursor = ''));
@@ -417,20 +461,27 @@ function renderLegend(): void {
         h('div', { class: 'ramp', style: `background: linear-gradient(to right, ${stops})` }),
         h('div', { class: 'ramp-labels' }, h('span', { text: `${fmt(ramp.min, info.unit === 'm' ? 0 : 2)}` }), h('span', { text: info.unit || '(no unit)' }), h('span', { text: `${fmt(ramp.max, info.unit === 'm' ? 0 : 2)}` })),
       );
-      if (/beta|ratio|age-max/.test(state.layer)) {
-        legendBox.append(h('div', { class: 'swatch-row' }, h('span', { class: 'swatch', style: `background: rgb(${UNBOUNDED_COLOUR.join(',')})` }), state.layer.includes('age') ? 'no finite age (beyond the curve’s asymptote)' : 'unbounded (no crust / beyond β = ∞)'));
-      }
+      if (info.applies !== 'all') legendBox.append(h('div', { class: 'hint', id: 'grid-rule', text: `Shown over ${APPLIES_TEXT[info.applies]}.` }));
+      if (/^beta/.test(state.layer)) legendBox.append(h('div', { class: 'hint', text: 'Unbounded β (zero crust, or subsidence beyond β = ∞) is no data here; the unbounded-beta grid in the exports marks those cells.' }));
     }
   }
   legendBox.append(h('div', { class: 'legend-title', text: 'Boundaries' }));
+  if (r?.summary.placedBy) {
+    const pb = r.summary.placedBy;
+    legendBox.append(h('div', { class: 'hint', id: 'placed-by' },
+      ...[['crustal-taper-limit', 'Taper limit'], ['oceanic-limit', 'Oceanic limit'], ['oldest-onlapped-crust', 'Oldest onlapped crust']].map(([k, label]) => h('div', { text: `${label}: ${pb[k] ?? '—'}` }))));
+  }
   for (const s of BOUNDARY_STYLES) legendBox.append(h('div', { class: 'swatch-row' }, swatchLine(s.colour, s.dash, s.width), s.label));
   legendBox.append(
     h('div', { class: 'swatch-row' }, h('span', { class: 'swatch', style: `background: ${COT_FILL}; opacity: 0.5` }), 'Continent–ocean transition zone'),
     h('div', { class: 'swatch-row' }, swatchLine('#555', null, 4.5), 'placed by picks (bold)'),
     h('div', { class: 'swatch-row' }, swatchLine('#555', null, 2), 'placed by the thickness proxy (thin)'),
+    h('div', { class: 'swatch-row' }, swatchLine('rgba(85,85,85,0.45)', null, 1.5), `proxy more than ${fmt(r?.summary.farFromControlKm ?? DEFAULT_PARAMS.farFromControl / 1000, 0)} km from any pick or seismic line (faded)`),
     h('div', { class: 'swatch-row' }, swatchLine('#111', [2.5, 1], 2), 'Licence'),
     h('div', { class: 'swatch-row' }, swatchLine('#3b3b3b', null, 1.6), 'Existing seismic line'),
-    h('div', { class: 'swatch-row' }, h('span', { class: 'swatch dot' }), 'Interpreter pick'),
+    h('div', { class: 'swatch-row' }, h('span', { class: 'swatch dot' }), 'Interpreter pick (click for its checks)'),
+    h('div', { class: 'swatch-row' }, h('span', { class: 'swatch dot', style: `background: ${SUSPECT_PICK}` }), 'Suspect pick: disagrees with its neighbours or lies far from the line'),
+    h('div', { class: 'swatch-row' }, h('span', { class: 'swatch dot', style: 'background: #9e9e9e' }), 'Pick excluded by you'),
     h('div', { class: 'swatch-row' }, swatchLine('#5e3c99', [1, 2], 1.5), 'Magnetic isochron'),
     h('div', { class: 'swatch-row' }, swatchLine('#009E73', null, 3), 'Proposed dip line'),
     h('div', { class: 'swatch-row' }, swatchLine('#56B4E9', null, 2.5), 'Proposed strike (tie) line'),
@@ -486,6 +537,9 @@ function paramInput(spec: ParamSpec): HTMLElement {
     h('div', { class: 'doc', text: `${spec.doc} Default ${def === null ? 'none' : def}${spec.unit && def !== null && !spec.choices ? ' ' + spec.unit : ''}. Source: ${spec.source}.` }),
     state.paramErrors[spec.key] ? h('div', { class: 'error', text: state.paramErrors[spec.key] }) : null,
     spec.key === 'taperThreshold' && calibratedNote() ? h('div', { class: 'warning', id: 'calibration-note', text: calibratedNote()! }) : null,
+    (spec.key === 'taperThreshold' || spec.key === 'oceanicThreshold') && state.result?.summary.placedBy
+      ? h('div', { class: 'hint', id: `placed-${spec.key}`, text: `In this run: ${state.result.summary.placedBy[spec.key === 'taperThreshold' ? 'crustal-taper-limit' : 'oceanic-limit']}.` })
+      : null,
   );
 }
 
@@ -493,15 +547,18 @@ function calibratedNote(): string | null {
   const c = state.result?.summary.calibrated;
   if (!c || (!c.taper && !c.ocean && !c.onlap)) return null;
   return (
-    `Picks in use (${c.taper} continental-limit, ${c.ocean} oceanic-limit, ${c.onlap} onlap): where a line has picks, its threshold is the crustal ` +
-    'thickness at the picks, interpolated along strike, and this value does not place it. Set the picks file to "not used" to apply this value.'
+    `Picks in use (${c.taper} continental-limit, ${c.ocean} oceanic-limit, ${c.onlap} onlap): the taper limit and the oceanic limit each follow ` +
+    'their own picks (the crustal thickness at the picks, interpolated along strike); a line with picks is not placed by its threshold value. ' +
+    'Onlap picks move the oldest onlapped crust away from the oceanic limit. Set the picks file to "not used" to apply the values.'
   );
 }
 
 let lastNote: string | null = null;
+let lastPlaced = '';
 
 function renderParams(): void {
   lastNote = calibratedNote();
+  lastPlaced = JSON.stringify(state.result?.summary.placedBy ?? null);
   clear(paramsBox);
   const groups: Record<string, string> = { crust: 'Crust', densities: 'Densities', sediment: 'Sediment', subsidence: 'Subsidence (McKenzie 1978)', age: 'Oceanic age', picks: 'Pick tolerances', domains: 'Domains', lines: 'Lines' };
   for (const [g, title] of Object.entries(groups)) {
@@ -721,6 +778,7 @@ async function loadDemo(reset: boolean): Promise<void> {
   }
   state.demo = true;
   state.params = { ...DEMO_PARAMS };
+  state.excludePicks = [];
   renderScenario();
   renderFiles();
   renderParams();
@@ -760,7 +818,7 @@ async function run(fit: boolean): Promise<void> {
   };
   statusText.textContent = 'Computing…';
   try {
-    const result = await engine.run(state.params, state.visible.outlines);
+    const result = await engine.run(state.params, state.visible.outlines, state.excludePicks);
     state.result = result;
     window.__taperline.runs++;
     window.__taperline.lastMillis = performance.now() - t0;
@@ -769,7 +827,7 @@ async function run(fit: boolean): Promise<void> {
     renderRaster();
     renderVectors();
     renderAreas();
-    if (calibratedNote() !== lastNote) renderParams();
+    if (calibratedNote() !== lastNote || JSON.stringify(result.summary.placedBy) !== lastPlaced) renderParams();
     setStatus(`Done in ${fmt(performance.now() - t0)} ms (pipeline ${fmt(result.millis)} ms). ${result.summary.warnings.length} warnings.`);
     map.once('idle', () => (window.__taperline.ready = true));
     map.triggerRepaint();
@@ -817,6 +875,8 @@ function snapshot(): StoredProject {
     params: { ...state.params },
     view: viewState(),
     demo: state.demo,
+    plan: { ...state.plan },
+    excludePicks: [...state.excludePicks],
   };
 }
 map.on('moveend', () => autosave());
@@ -826,6 +886,9 @@ async function restore(p: StoredProject): Promise<void> {
   for (const f of p.files) await addFile(f.name, f.bytes, f.role, f.options as LoadedFile['options'], true);
   state.params = p.params ?? {};
   state.demo = p.demo;
+  state.plan = { ...(p.plan ?? {}) };
+  state.excludePicks = [...(p.excludePicks ?? [])];
+  renderPlanBox();
   if (p.view) {
     state.layer = p.view.layer;
     state.opacity = p.view.opacity;
@@ -850,7 +913,7 @@ async function saveProjectFile(bundle: boolean): Promise<void> {
   for (const f of state.files.filter((x) => !x.error)) {
     inputs.push({ name: f.name, kind: f.kind, role: f.role, bytes: f.bytes.byteLength, sha256: await sha256(f.bytes), options: f.options, ...(bundle ? { data: toBase64(new Uint8Array(f.bytes)) } : {}) });
   }
-  const project: Project = { format: PROJECT_FORMAT, version: PROJECT_VERSION, saved: new Date().toISOString(), tool: `taperline ${VERSION}`, params: resolveParams(state.params) as unknown as Record<string, unknown>, inputs, view: viewState() };
+  const project: Project = { format: PROJECT_FORMAT, version: PROJECT_VERSION, saved: new Date().toISOString(), tool: `taperline ${VERSION}`, params: resolveParams(state.params) as unknown as Record<string, unknown>, inputs, view: viewState(), plan: { ...state.plan }, excludePicks: [...state.excludePicks] };
   download(bundle ? 'project-with-data.taperline.json' : 'project.taperline.json', JSON.stringify(project, null, 1), 'application/json');
 }
 
@@ -876,7 +939,7 @@ projectInput.addEventListener('change', async () => {
     }
     for (const f of state.files) engine.remove(f.id);
     state.files = [];
-    await restore({ files: files.map((f, k) => ({ id: `p${k}`, name: f.name, kind: kindOf(f.name) ?? 'vector', role: f.role, options: f.options as Record<string, unknown>, bytes: f.bytes })), params: p.params, view: p.view, demo: false });
+    await restore({ files: files.map((f, k) => ({ id: `p${k}`, name: f.name, kind: kindOf(f.name) ?? 'vector', role: f.role, options: f.options as Record<string, unknown>, bytes: f.bytes })), params: p.params, view: p.view, demo: false, plan: p.plan, excludePicks: p.excludePicks });
     autosave();
     setStatus(`Opened ${file.name}`);
   } catch (err) {
@@ -893,7 +956,6 @@ async function clearLocal(): Promise<void> {
 // ---------------------------------------------------------------- sections and survey planning
 let drawing: [number, number][] | null = null;
 let currentSection: SectionData | null = null;
-const planValues: Record<string, unknown> = {};
 
 function showDrawn(): void {
   const pts = drawing ?? [];
@@ -975,11 +1037,11 @@ function renderPlanBox(result: PlanData | null = null): void {
     h('p', { class: 'hint', text: 'Or click an existing or proposed line to see its section.' }),
   );
   const field = (spec: (typeof PLAN_SPECS)[number]) => {
-    const v = planValues[spec.key] ?? DEFAULT_PLAN[spec.key];
+    const v = state.plan[spec.key] ?? DEFAULT_PLAN[spec.key];
     const input = spec.boolean
-      ? h('input', { type: 'checkbox', id: `plan-${spec.key}`, checked: v === true, onchange: (e: Event) => (planValues[spec.key] = (e.target as HTMLInputElement).checked) })
+      ? h('input', { type: 'checkbox', id: `plan-${spec.key}`, checked: v === true, onchange: (e: Event) => ((state.plan = { ...state.plan, [spec.key]: (e.target as HTMLInputElement).checked }), autosave()) })
       : h('input', { type: 'number', step: 'any', id: `plan-${spec.key}`, value: v === null ? '' : String(v), placeholder: spec.nullable ? 'not set' : '',
-          onchange: (e: Event) => (planValues[spec.key] = (e.target as HTMLInputElement).value === '' ? null : Number((e.target as HTMLInputElement).value)) });
+          onchange: (e: Event) => ((state.plan = { ...state.plan, [spec.key]: (e.target as HTMLInputElement).value === '' ? null : Number((e.target as HTMLInputElement).value) }), autosave()) });
     return h('div', { class: 'param' }, h('label', { for: `plan-${spec.key}`, text: spec.label }), h('div', { class: 'param-input' }, input, h('span', { class: 'unit', text: spec.unit })),
       h('div', { class: 'doc', text: `${spec.doc} Default ${DEFAULT_PLAN[spec.key] ?? 'none'}. Source: ${spec.source}.` }));
   };
@@ -1021,7 +1083,7 @@ function renderPlanBox(result: PlanData | null = null): void {
 async function propose(): Promise<void> {
   try {
     setStatus('Proposing lines…');
-    const r = await engine.plan(planValues);
+    const r = await engine.plan(state.plan);
     setSource('proposals', r.lines);
     setSource('midline', r.midline);
     setSource('gaps', r.gaps);

@@ -23,6 +23,10 @@ export interface RunSummary {
   readonly suggestedTc0: number | null;
   /** Picks used to calibrate each line's threshold. */
   readonly calibrated: { taper: number; ocean: number; onlap: number };
+  /** Which parameter or which picks placed each line, in words. */
+  readonly placedBy: Record<string, string>;
+  readonly suspectPicks: number;
+  readonly farFromControlKm: number;
 }
 
 export interface DisplayResult {
@@ -32,6 +36,8 @@ export interface DisplayResult {
   readonly domains: Uint8Array;
   readonly boundaries: unknown; // RFC 7946 FeatureCollection (whole grid)
   readonly domainOutlines: unknown | null; // RFC 7946 FeatureCollection, when asked for
+  /** Picks as used (lon/lat) with their checks: id, kind, line, excluded, suspect, reasons, numbers. */
+  readonly picks: unknown; // RFC 7946 FeatureCollection
   readonly summary: RunSummary;
   readonly millis: number;
 }
@@ -49,6 +55,8 @@ export type ToWorker =
       params: Record<string, unknown>;
       /** Domain polygons are built only when their layer is shown. */
       outlines: boolean;
+      /** Ids of picks the user excluded. */
+      excludePicks: string[];
     }
   | { type: 'export'; requestId: number; time: string; version: string }
   | { type: 'section'; requestId: number; lonlat: [number, number][]; title: string }

@@ -21,6 +21,10 @@ export interface StoredProject {
   params: Record<string, unknown>;
   view: { center: [number, number]; zoom: number; layer: string; opacity: number; visible: Record<string, boolean> } | null;
   demo: boolean;
+  /** Survey-planning values the user set (absent keys take their defaults). */
+  plan?: Record<string, unknown>;
+  /** Ids of picks the user excluded. */
+  excludePicks?: string[];
 }
 
 function open(): Promise<IDBDatabase> {

@@ -19,6 +19,26 @@ import { planFromResult, sectionAlong } from '../survey/run.js';
 import { surveyCsv, surveyGeoJson } from '../export/survey.js';
 import { splitLine, toLonLat } from '../export/rfc7946.js';
 
+/** The picks as the run used them, with their consistency checks, in WGS 84 for the map. */
+function picksGeoJson(r: PipelineResult): unknown {
+  const t = transformer(r.geometry.crs, WGS84);
+  const checks = new Map(r.pickChecks.map((c) => [c.id, c]));
+  return {
+    type: 'FeatureCollection',
+    features: r.evidence.picks.map((q) => {
+      const c = checks.get(q.id);
+      return {
+        type: 'Feature',
+        properties: {
+          id: q.id, kind: q.kind, line: q.line ?? null, excluded: Boolean(q.excluded), suspect: Boolean(c?.suspect),
+          reasons: c?.reasons ?? [], thickness_m: c?.thickness_m ?? null, trend_m: c?.trend_m ?? null, departure_m: c?.departure_m ?? null, proxy_distance_m: c?.proxy_distance_m ?? null,
+        },
+        geometry: { type: 'Point', coordinates: t.forward([q.x, q.y]) },
+      };
+    }),
+  };
+}
+
 const grids = new Map<string, GridInput>();
 const vectors = new Map<string, VectorInput>();
 let last: PipelineResult | null = null;
@@ -79,7 +99,7 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
           if (!basement || !moho) throw new Error('a top-basement grid and a Moho grid are needed (assign the roles in Data)');
           const r = runPipeline(
             { basement, moho, seabed: g('seabed'), licence: v('licence'), lines: v('lines'), picks: v('picks'), isochrons: v('isochrons'), crust: v('crust') },
-            { params: m.params, cache, onProgress: (stage, fraction) => post({ type: 'progress', runId: m.runId, stage, fraction }) },
+            { params: m.params, cache, excludePicks: m.excludePicks, onProgress: (stage, fraction) => post({ type: 'progress', runId: m.runId, stage, fraction }) },
           );
           last = r;
           const regional = boundariesGeoJson(r, 'regional');
@@ -94,6 +114,7 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
             domains,
             boundaries: regional,
             domainOutlines: m.outlines ? domainsGeoJson(r) : null,
+            picks: picksGeoJson(r),
             summary: {
               areas: r.areas.total,
               areasInLicence: r.areas.inLicence,
@@ -105,6 +126,9 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
               oceanwardAzimuth: r.oceanward.azimuth,
               suggestedTc0: Number.isFinite(r.derived.suggestedTc0) ? r.derived.suggestedTc0 : null,
               calibrated: { taper: r.calibration.taper?.points.length ?? 0, ocean: r.calibration.ocean?.points.length ?? 0, onlap: r.boundaries.onlap.points.length },
+              placedBy: s.lines_placed_by as Record<string, string>,
+              suspectPicks: r.pickChecks.filter((c) => c.suspect && !c.excluded).length,
+              farFromControlKm: r.params.farFromControl / 1000,
             },
             millis: performance.now() - t0,
           };

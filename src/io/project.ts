@@ -37,6 +37,10 @@ export interface Project {
   readonly params: Record<string, unknown>;
   readonly inputs: ProjectInput[];
   readonly view: ProjectView | null;
+  /** Survey-planning values the user set (absent keys take their defaults). */
+  readonly plan: Record<string, unknown>;
+  /** Ids of picks the user excluded. */
+  readonly excludePicks: string[];
 }
 
 const B64 = 'ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/';
@@ -83,5 +87,17 @@ export function parseProject(text: string, file: string): Project {
       throw new InputError(file, `input ${k} lacks a name, kind or sha256`);
     }
   }
-  return { format: PROJECT_FORMAT, version: p.version, saved: String(p.saved ?? ''), tool: String(p.tool ?? ''), params: p.params ?? {}, inputs: p.inputs, view: p.view ?? null };
+  if (p.plan !== undefined && (p.plan === null || typeof p.plan !== 'object' || Array.isArray(p.plan))) throw new InputError(file, '"plan" must be an object of planning values');
+  if (p.excludePicks !== undefined && (!Array.isArray(p.excludePicks) || p.excludePicks.some((q) => typeof q !== 'string'))) throw new InputError(file, '"excludePicks" must be a list of pick ids');
+  return {
+    format: PROJECT_FORMAT,
+    version: p.version,
+    saved: String(p.saved ?? ''),
+    tool: String(p.tool ?? ''),
+    params: p.params ?? {},
+    inputs: p.inputs,
+    view: p.view ?? null,
+    plan: p.plan ?? {},
+    excludePicks: p.excludePicks ?? [],
+  };
 }

@@ -47,6 +47,41 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     expect(text).toMatch(/domain/);
   });
 
+  it('a pick shows its checks on click and can be excluded and used again', async () => {
+    const pickAt = () =>
+      p.page.evaluate(() => {
+        const fc = window.__taperline.state.result!.picks as { features: { properties: { id: string; kind: string }; geometry: { coordinates: number[] } }[] };
+        const f = fc.features.find((q) => q.properties.kind === 'continental-limit')!;
+        const s = window.__taperline.map.project([f.geometry.coordinates[0], f.geometry.coordinates[1]]);
+        const r = window.__taperline.map.getContainer().getBoundingClientRect();
+        return { x: r.left + s.x, y: r.top + s.y, id: f.properties.id };
+      });
+    const at = await pickAt();
+    await p.page.mouse.click(at.x, at.y);
+    const popup = p.page.locator('#pick-popup');
+    await popup.waitFor({ timeout: 5000 });
+    const text = (await popup.textContent())!;
+    expect(text).toContain(at.id);
+    expect(text).toMatch(/crustal thickness at the pick/);
+    expect(text).toMatch(/neighbours|departure/);
+    let runs = await p.page.evaluate(() => window.__taperline.runs);
+    await p.page.click('#pick-exclude');
+    await waitReady(p.page, runs + 1);
+    const excluded = await p.page.evaluate((id) => {
+      const fc = window.__taperline.state.result!.picks as { features: { properties: { id: string; excluded: boolean } }[] };
+      return { state: window.__taperline.state.excludePicks, flag: fc.features.find((q) => q.properties.id === id)!.properties.excluded, calibrated: window.__taperline.state.result!.summary.calibrated.taper };
+    }, at.id);
+    expect(excluded).toEqual({ state: [at.id], flag: true, calibrated: 2 });
+    const again = await pickAt();
+    await p.page.mouse.click(again.x, again.y);
+    await p.page.locator('#pick-popup').waitFor({ timeout: 5000 });
+    await expect(p.page.locator('#pick-popup').textContent()).resolves.toMatch(/excluded by you/);
+    runs = await p.page.evaluate(() => window.__taperline.runs);
+    await p.page.click('#pick-exclude');
+    await waitReady(p.page, runs + 1);
+    expect(await p.page.evaluate(() => window.__taperline.state.excludePicks)).toEqual([]);
+  });
+
   it('moves the taper limit landward when the taper threshold rises', async () => {
     const meanLon = () =>
       p.page.evaluate(() => {
@@ -256,6 +291,8 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
 
   it('proposes lines, shows them on the map and exports them', async () => {
     await p.page.click('#section-close');
+    await p.page.fill('#plan-spacingKm', '30');
+    await p.page.dispatchEvent('#plan-spacingKm', 'change');
     await p.page.click('#btn-plan');
     await p.page.waitForFunction(() => (window.__taperline.planned ?? 0) >= 1, null, { timeout: 60_000 });
     await p.page.waitForTimeout(500);
@@ -266,8 +303,17 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     const fc = JSON.parse(readFileSync((await dl.path())!, 'utf8'));
     expect(rfc7946Violations(fc)).toEqual([]);
     expect(fc.features[0].properties.rank).toBe(1);
+    expect(fc.programme.parameters.spacingKm).toBe(30);
     const [dl2] = await Promise.all([p.page.waitForEvent('download'), p.page.click('#export-plan-csv')]);
     expect(readFileSync((await dl2.path())!, 'utf8')).toMatch(/start_lon,start_lat/);
+  });
+
+  it('planning parameters survive a reload', async () => {
+    await p.page.waitForTimeout(800); // autosave debounce
+    await p.page.reload();
+    await waitReady(p.page);
+    expect(await p.page.evaluate(() => window.__taperline.state.plan.spacingKm)).toBe(30);
+    await expect(p.page.locator('#plan-spacingKm').inputValue()).resolves.toBe('30');
   });
 
   it('"Clear local data" removes everything stored and starts again on the demo', async () => {

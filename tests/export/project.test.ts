@@ -61,6 +61,17 @@ describe('project file', () => {
     }
   });
 
+  it('keeps planning values and excluded picks, and refuses them wrongly typed', () => {
+    const base = { format: PROJECT_FORMAT, version: 1, saved: 'x', tool: 't', params: {}, view: null, inputs: [] };
+    const p = parseProject(JSON.stringify({ ...base, plan: { spacingKm: 30 }, excludePicks: ['VX-105/onlap'] }), 'p.json');
+    expect(p.plan).toEqual({ spacingKm: 30 });
+    expect(p.excludePicks).toEqual(['VX-105/onlap']);
+    // an older project without them opens with none
+    expect(parseProject(JSON.stringify(base), 'old.json')).toMatchObject({ plan: {}, excludePicks: [] });
+    expect(() => parseProject(JSON.stringify({ ...base, plan: [1] }), 'bad.json')).toThrow(/bad\.json: "plan" must be an object/);
+    expect(() => parseProject(JSON.stringify({ ...base, excludePicks: [3] }), 'bad.json')).toThrow(/bad\.json: "excludePicks" must be a list of pick ids/);
+  });
+
   it('refuses what is not a project, naming the file', () => {
     expect(() => parseProject('{"hello": 1}', 'notes.json')).toThrow(/notes\.json: is not a Taperline project file/);
     expect(() => parseProject('nope', 'x.json')).toThrow(/x\.json: is not a project file/);
