@@ -48,7 +48,7 @@ try {
   const q = await openPage(app, fresh);
   await q.page.click('#btn-plan');
   await q.page.waitForFunction(() => (window.__taperline.planned ?? 0) >= 1, null, { timeout: 60_000 });
-  await q.page.locator('#proposal-list button').first().click();
+  await q.page.locator('#proposal-list tr', { hasText: '(dip)' }).first().locator('button').click();
   await q.page.locator('#section-panel:not([hidden]) svg').waitFor();
   await q.page.waitForTimeout(500);
   await q.page.screenshot({ path: `${out}/survey-plan-and-section.png` });

@@ -1066,7 +1066,10 @@ function renderPlanBox(result: PlanData | null = null): void {
       h('tr', {}, h('th', { text: '#' }), h('th', { text: 'line' }), h('th', { text: 'km' }), h('th', { text: 'cum. km' }), h('th', { text: 'record s' }), h('th', { text: '' })),
       ...fc.features.map((f) => h('tr', {},
         h('td', { text: String(f.properties.rank) }),
-        h('td', { text: `${f.properties.id} (${f.properties.kind})` }),
+        h('td', {
+          text: `${f.properties.id} (${f.properties.kind === 'strike' ? 'tie' : 'dip'})`,
+          title: f.properties.kind === 'strike' ? `ties ${(f.properties.ties as string[] | null)?.join(', ') ?? '—'}; ${f.properties.note ?? ''}` : String(f.properties.note ?? ''),
+        }),
         h('td', { text: fmt(Number(f.properties.length_km), 1) }),
         h('td', { text: fmt(Number(f.properties.cumulative_km), 0) }),
         h('td', { text: String(f.properties.record_length_s) }),
