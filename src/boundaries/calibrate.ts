@@ -8,6 +8,7 @@
 import { colToX, rowToY, xToCol, yToRow, type GridGeometry } from '../grid/geometry.js';
 import { sampleBilinear } from '../grid/resample.js';
 import type { Oceanward } from '../domains/direction.js';
+import { interpolateAlongStrike, strikeOf } from './strike.js';
 
 export interface CalibrationPoint {
   readonly x: number;
@@ -30,8 +31,6 @@ export function calibrateThreshold(
   oceanward: Oceanward,
   fallback: number,
 ): Calibration {
-  const sx = oceanward.ey; // strike unit vector (perpendicular to oceanward)
-  const sy = -oceanward.ex;
   const grid = { geometry, values: thickness };
   const points: CalibrationPoint[] = [];
   const skipped: Calibration['skipped'] = [];
@@ -41,7 +40,7 @@ export function calibrateThreshold(
       skipped.push({ ...p, reason: 'no crustal thickness at the pick (outside the grid, no data or Moho not imaged)' });
       continue;
     }
-    points.push({ x: p.x, y: p.y, line: p.line, thickness: t, strike: p.x * sx + p.y * sy });
+    points.push({ x: p.x, y: p.y, line: p.line, thickness: t, strike: strikeOf(oceanward, p.x, p.y) });
   }
   if (points.length === 0) return { field: fallback, points, skipped };
   points.sort((a, b) => a.strike - b.strike);
@@ -50,26 +49,9 @@ export function calibrateThreshold(
   for (let j = 0; j < ny; j++) {
     const y = rowToY(geometry, j);
     for (let i = 0; i < nx; i++) {
-      const s = colToX(geometry, i) * sx + y * sy;
-      field[j * nx + i] = interpolate(points, s);
+      const s = strikeOf(oceanward, colToX(geometry, i), y);
+      field[j * nx + i] = interpolateAlongStrike(points, s, (q) => q.thickness);
     }
   }
   return { field, points, skipped };
-}
-
-function interpolate(points: CalibrationPoint[], s: number): number {
-  if (s <= points[0].strike) return points[0].thickness;
-  const last = points[points.length - 1];
-  if (s >= last.strike) return last.thickness;
-  let lo = 0;
-  let hi = points.length - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (points[mid].strike <= s) lo = mid;
-    else hi = mid;
-  }
-  const a = points[lo];
-  const b = points[hi];
-  const span = b.strike - a.strike;
-  return span > 0 ? a.thickness + ((b.thickness - a.thickness) * (s - a.strike)) / span : a.thickness;
 }

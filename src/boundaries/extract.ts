@@ -123,16 +123,7 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   const gOcean = sideField(tc, oceanic, inp.oceanLevel, true);
   const gNeck = sideField(tc, continental, p.neckingFraction * p.tc0, false);
   const gCoupling = sideField(tc, continental, p.couplingThickness, false);
-  const toMap = (l: Lines): Ring[] => {
-    const out: Ring[] = [];
-    for (let k = 0; k < lineCount(l); k++) {
-      const [b, e] = lineRange(l, k);
-      const r: Ring = [];
-      for (let q = b; q < e; q++) r.push([colToX(g, l.positions[2 * q]), rowToY(g, l.positions[2 * q + 1])]);
-      out.push(r);
-    }
-    return out;
-  };
+  const toMap = (l: Lines): Ring[] => linesToMap(g, l);
   const grid = (v: Float32Array) => ({ values: v, nx, ny });
   const lines: Record<'taper' | 'oceanic' | 'necking' | 'coupling', Ring[]> = {
     taper: toMap(traceLevel(grid(gTaper), 0)),
@@ -298,7 +289,11 @@ const km = (m: number) => (m / 1000).toFixed(1);
 
 /** The zero line of a side field (fields.ts) in map coordinates: one boundary line alone. */
 export function traceSideLine(g: GridGeometry, tc: Float32Array, inside: (k: number) => boolean, level: Float32Array | number): Ring[] {
-  const l = traceLevel({ values: sideField(tc, inside, level, true), nx: g.nx, ny: g.ny }, 0);
+  return linesToMap(g, traceLevel({ values: sideField(tc, inside, level, true), nx: g.nx, ny: g.ny }, 0));
+}
+
+/** Traced lines (index space) → rings in map coordinates. */
+function linesToMap(g: GridGeometry, l: Lines): Ring[] {
   const out: Ring[] = [];
   for (let k = 0; k < lineCount(l); k++) {
     const [b, e] = lineRange(l, k);

@@ -11,6 +11,9 @@
 
 import type { Oceanward } from '../domains/direction.js';
 import { rayHits, type Ring } from './planar.js';
+import { interpolateAlongStrike, strikeOf } from './strike.js';
+
+export { strikeOf };
 
 export interface OnlapPoint {
   readonly x: number;
@@ -19,11 +22,6 @@ export interface OnlapPoint {
   /** Oceanward offset from the oceanic limit (m). */
   readonly offset: number;
   readonly id: string;
-}
-
-/** The strike unit vector (perpendicular to oceanward) and a point's strike coordinate. */
-export function strikeOf(o: Oceanward, x: number, y: number): number {
-  return x * o.ey - y * o.ex;
 }
 
 /** Offset of each pick from the oceanic-limit lines along the oceanward direction (nearest crossing). */
@@ -37,21 +35,7 @@ export function onlapOffset(x: number, y: number, oceanic: Ring[], o: Oceanward,
 }
 
 export function offsetAt(points: readonly OnlapPoint[], s: number): number {
-  if (!points.length) return 0;
-  if (s <= points[0].strike) return points[0].offset;
-  const last = points[points.length - 1];
-  if (s >= last.strike) return last.offset;
-  let lo = 0;
-  let hi = points.length - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (points[mid].strike <= s) lo = mid;
-    else hi = mid;
-  }
-  const a = points[lo];
-  const b = points[hi];
-  const span = b.strike - a.strike;
-  return span > 0 ? a.offset + ((b.offset - a.offset) * (s - a.strike)) / span : a.offset;
+  return points.length ? interpolateAlongStrike(points, s, (q) => q.offset) : 0;
 }
 
 /** The onlap line: every oceanic-limit line moved by the interpolated offset. Points sorted by strike. */
