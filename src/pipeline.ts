@@ -326,6 +326,7 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     geometry,
     thickness: tc,
     domains: classified.domains,
+    flags: classified.flags,
     oceanward,
     taperLevel,
     oceanLevel,

@@ -14,7 +14,7 @@
 
 import { colToX, rowToY, xToCol, yToRow, type GridGeometry } from '../grid/geometry.js';
 import { lineCount, lineRange, ringArea, traceLevel, type Lines } from '../contour/marching-squares.js';
-import { DOMAIN_MOHO_GAP, isContinentalDomain } from '../domains/classify.js';
+import { DOMAIN_MOHO_GAP, FLAG_UNRESOLVED, isContinentalDomain } from '../domains/classify.js';
 import type { Oceanward } from '../domains/direction.js';
 import type { Params } from '../params.js';
 import { sideField } from './fields.js';
@@ -53,6 +53,8 @@ export interface BoundaryInput {
   readonly geometry: GridGeometry;
   readonly thickness: Float32Array;
   readonly domains: Uint8Array;
+  /** Per-cell classification flags: unresolved cells stop the taper and oceanic lines. */
+  readonly flags?: Uint8Array;
   readonly oceanward: Oceanward;
   readonly taperLevel: Float32Array | number;
   readonly oceanLevel: Float32Array | number;
@@ -75,6 +77,8 @@ export interface GapInterruption {
   readonly kind: LineKind;
   readonly x: number;
   readonly y: number;
+  /** What the line ran into: the Moho not imaged, or a transition thickness cannot resolve. */
+  readonly cause: 'moho-gap' | 'unresolved';
 }
 
 export interface BoundaryResult {
@@ -118,9 +122,12 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   const continental = (k: number) => isContinentalDomain(dom[k]);
   const oceanic = (k: number) => dom[k] === 5;
 
-  // 1. Side fields and their lines.
-  const gTaper = sideField(tc, continental, inp.taperLevel, true);
-  const gOcean = sideField(tc, oceanic, inp.oceanLevel, true);
+  // 1. Side fields and their lines. Where thickness cannot resolve the transition the taper and
+  // oceanic limits are not drawn (NaN: lines stop there, as at a Moho gap).
+  const flags = inp.flags;
+  const tcLimits = flags ? tc.map((v, k) => (flags[k] & FLAG_UNRESOLVED ? NaN : v)) : tc;
+  const gTaper = sideField(tcLimits, continental, inp.taperLevel, true);
+  const gOcean = sideField(tcLimits, oceanic, inp.oceanLevel, true);
   const gNeck = sideField(tc, continental, p.neckingFraction * p.tc0, false);
   const gCoupling = sideField(tc, continental, p.couplingThickness, false);
   const toMap = (l: Lines): Ring[] => linesToMap(g, l);
@@ -186,15 +193,20 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   const notes: string[] = [];
   const pieces: BoundaryPiece[] = [];
   const interruptions: GapInterruption[] = [];
-  const gapNear = (x: number, y: number) => {
+  /** What stops a line end: a Moho gap or an unresolved cell among the cells around it, or nothing. */
+  const stopAt = (x: number, y: number): GapInterruption['cause'] | null => {
     const ci = xToCol(g, x);
     const cj = yToRow(g, y);
+    let cause: GapInterruption['cause'] | null = null;
     for (let j = Math.floor(cj) - 1; j <= Math.ceil(cj) + 1; j++) {
       for (let i = Math.floor(ci) - 1; i <= Math.ceil(ci) + 1; i++) {
-        if (i >= 0 && j >= 0 && i < nx && j < ny && dom[j * nx + i] === DOMAIN_MOHO_GAP) return true;
+        if (i < 0 || j < 0 || i >= nx || j >= ny) continue;
+        const k = j * nx + i;
+        if (dom[k] === DOMAIN_MOHO_GAP) return 'moho-gap';
+        if (flags && flags[k] & FLAG_UNRESOLVED) cause = 'unresolved';
       }
     }
-    return false;
+    return cause;
   };
   const offsets = onlapPoints.map((q) => q.offset);
   const onlapRule = onlapPoints.length
@@ -217,10 +229,12 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
     const relevant = spec.pickKind ? usedPicks.filter((q) => q.kind === spec.pickKind).map((q) => [q.x, q.y] as [number, number]) : [];
     for (const line of spec.lines) {
       const closed = isClosed(line);
-      const startGap = !closed && gapNear(line[0][0], line[0][1]);
-      const endGap = !closed && gapNear(line[line.length - 1][0], line[line.length - 1][1]);
-      if (startGap) interruptions.push({ kind: spec.kind, x: line[0][0], y: line[0][1] });
-      if (endGap) interruptions.push({ kind: spec.kind, x: line[line.length - 1][0], y: line[line.length - 1][1] });
+      const startStop = closed ? null : stopAt(line[0][0], line[0][1]);
+      const endStop = closed ? null : stopAt(line[line.length - 1][0], line[line.length - 1][1]);
+      if (startStop) interruptions.push({ kind: spec.kind, x: line[0][0], y: line[0][1], cause: startStop });
+      if (endStop) interruptions.push({ kind: spec.kind, x: line[line.length - 1][0], y: line[line.length - 1][1], cause: endStop });
+      const startGap = startStop === 'moho-gap';
+      const endGap = endStop === 'moho-gap';
       const dist = line.map(([x, y]) => controlDistance(x, y));
       const ev: Evidence[] = line.map(([x, y], k) =>
         relevant.some((q) => Math.hypot(q[0] - x, q[1] - y) <= p.pickReach) ? 'picks' : dist[k] > p.farFromControl ? 'proxy-far' : 'proxy-near',
@@ -240,6 +254,7 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
           far_from_control: piece.evidence === 'proxy-far',
           control_distance_km: Number.isFinite(maxD) ? round3(maxD / 1000) : null,
           ends_at_moho_gap: (q === 0 && startGap) || (q === parts.length - 1 && endGap),
+          ends_at_unresolved: (q === 0 && startStop === 'unresolved') || (q === parts.length - 1 && endStop === 'unresolved'),
           closed: closed && parts.length === 1,
         };
         if (spec.kind === 'oldest-onlapped-crust') {
@@ -280,7 +295,10 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
     for (const rings of cotLicence) inLicence.push({ kind: 'cot-zone', coords: rings, properties: cotProps(rings, true) });
     notes.push('inside the licence, lines are clipped exactly; the COT zone polygon is cut at the cell centres inside the licence (within one cell of its edge)');
   }
-  if (interruptions.length) notes.push(`${interruptions.length} line end${interruptions.length > 1 ? 's stop' : ' stops'} where the Moho is not imaged (see lines_interrupted_by_moho_gap)`);
+  const gaps = interruptions.filter((q) => q.cause === 'moho-gap').length;
+  const unres = interruptions.length - gaps;
+  if (gaps) notes.push(`${gaps} line end${gaps > 1 ? 's stop' : ' stops'} where the Moho is not imaged (see lines_interrupted_by_moho_gap)`);
+  if (unres) notes.push(`${unres} line end${unres > 1 ? 's stop' : ' stops'} where thickness cannot resolve the transition (see lines_interrupted_by_unresolved_transition)`);
   const support = { taper: lines.taper, oceanic: lines.oceanic, onlap, necking: lines.necking, coupling: lines.coupling };
   return { pieces, inLicence, missing, notes, interruptions, onlap: { points: onlapPoints, skipped: onlapSkipped }, support };
 }

@@ -12,8 +12,15 @@
  *  - thin cells enclosed by one side join it (flagged); thin cells between the sides are transition;
  *  - basement but no Moho: "Moho not imaged", its own class (6), never no data and never part of
  *    another domain; it takes no part in connectivity or enclosure;
- *  - a component reaching both edges: thickness cannot resolve the transition there; its cells
- *    thinner than the typical oceanic maximum become transition, flagged "unresolved".
+ *  - oceanic side first (crust ≥ the oceanic-limit threshold connected to the oceanward edge), then
+ *    the continental side (crust ≥ the taper threshold connected to the landward edge without passing
+ *    through the oceanic side);
+ *  - continental-side crust touching oceanic-side crust with no thinner gap (thin continental crust
+ *    meeting thin first oceanic crust): thickness cannot place the transition; the continental-side
+ *    cells thinner than the oceanic-limit threshold nearer that contact than any thin-gap cell are
+ *    transition, flagged "unresolved";
+ *  - an oceanic-side component that reaches the landward edge too: cells thinner than the typical
+ *    oceanic maximum in it become transition, flagged "unresolved".
  * Crust-type polygons (evidence) force their cells before connectivity is computed.
  */
 
@@ -134,21 +141,29 @@ export function classify(inp: ClassifyInput): Classified {
       if (t >= level(inp.oceanLevel, k)) mo[k] = 1;
     }
   }
-  const cc = components(mc, nx, ny);
+  // Oceanic side first: crust at or above the oceanic-limit threshold connected to the oceanward edge.
   const co = components(mo, nx, ny);
-  const contComp = new Uint8Array(cc.count + 1);
   const oceanComp = new Uint8Array(co.count + 1);
-  for (let k = 0; k < n; k++) {
-    if (landSeed[k] && cc.labels[k]) contComp[cc.labels[k]] = 1;
-    if (oceanSeed[k] && co.labels[k]) oceanComp[co.labels[k]] = 1;
-  }
-  // A thick component that holds oceanic-side crust, or reaches the oceanward edge, is part of the
-  // ocean (its cells between the two thresholds are thin relative to oceanic crust), never a block.
+  for (let k = 0; k < n; k++) if (oceanSeed[k] && co.labels[k]) oceanComp[co.labels[k]] = 1;
+  const onO = (k: number) => co.labels[k] > 0 && oceanComp[co.labels[k]] === 1;
+  // An oceanic component that also reaches the landward edge: nothing parts continent from ocean.
+  const landO = new Uint8Array(co.count + 1);
+  for (let k = 0; k < n; k++) if (landSeed[k] && onO(k)) landO[co.labels[k]] = 1;
+  // Continental side: crust at or above the taper threshold connected to the landward edge without
+  // passing through oceanic-side crust.
+  const mcx = new Uint8Array(n);
+  for (let k = 0; k < n; k++) mcx[k] = mc[k] && !onO(k) ? 1 : 0;
+  const cc = components(mcx, nx, ny);
+  const contComp = new Uint8Array(cc.count + 1);
+  for (let k = 0; k < n; k++) if (landSeed[k] && cc.labels[k]) contComp[cc.labels[k]] = 1;
+  // A thick component touching oceanic-side crust or the oceanward edge belongs with the ocean (its
+  // cells between the two thresholds are thin relative to oceanic crust), never a block.
   const oceanLinked = new Uint8Array(cc.count + 1);
   for (let k = 0; k < n; k++) {
     const lc = cc.labels[k];
     if (!lc) continue;
-    if (oceanSeed[k] || (co.labels[k] && oceanComp[co.labels[k]])) oceanLinked[lc] = 1;
+    const i = k % nx;
+    if (oceanSeed[k] || (i > 0 && onO(k - 1)) || (i < nx - 1 && onO(k + 1)) || (k >= nx && onO(k - nx)) || (k < n - nx && onO(k + nx))) oceanLinked[lc] = 1;
   }
 
   const domains = new Uint8Array(n);
@@ -161,26 +176,60 @@ export function classify(inp: ClassifyInput): Classified {
   for (let k = 0; k < n; k++) {
     if (!inp.valid[k]) continue;
     const lc = cc.labels[k];
-    const lo = co.labels[k];
-    const isC = lc > 0 && contComp[lc] === 1;
-    const isO = lo > 0 && oceanComp[lo] === 1;
     const f = force ? force[k] : FORCE_NONE;
     if (f !== FORCE_NONE) flags[k] |= FLAG_FORCED;
     if (f === FORCE_CONTINENTAL && mc[k]) side[k] = SIDE_C;
     else if (f === FORCE_OCEANIC && mo[k]) side[k] = SIDE_O;
-    else if (isC && isO) {
+    else if (onO(k) && landO[co.labels[k]]) {
+      // oceanic-range crust runs unbroken to the landward edge: only crust thicker than any oceanic
+      // crust is continental; the rest cannot be told apart
       merged++;
       if (tc[k] >= inp.oceanicMax) side[k] = SIDE_C;
       else flags[k] |= FLAG_UNRESOLVED;
-    } else if (isC) side[k] = SIDE_C;
-    else if (isO) side[k] = SIDE_O;
-    else if (lc > 0 && !oceanLinked[lc] && contComp[lc] === 0) blockSizes.set(lc, cc.sizes[lc]);
+    } else if (onO(k)) side[k] = SIDE_O;
+    else if (lc > 0 && contComp[lc] === 1) side[k] = SIDE_C;
+    else if (lc > 0 && !oceanLinked[lc]) blockSizes.set(lc, cc.sizes[lc]);
   }
   if (merged) {
     warnings.push(
-      `thickness cannot resolve the transition in ${merged} cells: continental and oceanic-range crust are connected with no thinner gap; ` +
+      `thickness cannot resolve the transition in ${merged} cells: oceanic-range crust runs unbroken to the landward edge; ` +
         'cells thinner than the typical oceanic maximum there are marked unresolved. Add picks or crust-type polygons.',
     );
+  }
+
+  // Where continental-side crust touches oceanic-side crust with no thinner gap between them (thin
+  // continental crust meeting thin first oceanic crust), thickness cannot place the transition. The
+  // continental-side cells thinner than the oceanic-limit threshold there are unresolved: those
+  // nearer to such a contact than to any thin-gap cell (thinner than the taper threshold), so
+  // hyperextended crust beside a real gap elsewhere along strike keeps its domain.
+  const contact = new Uint8Array(n);
+  let contacts = 0;
+  for (let k = 0; k < n; k++) {
+    if (side[k] !== SIDE_C || flags[k] & FLAG_FORCED) continue;
+    const i = k % nx;
+    const touch = (q: number) => side[q] === SIDE_O && !(flags[q] & FLAG_FORCED);
+    if ((i > 0 && touch(k - 1)) || (i < nx - 1 && touch(k + 1)) || (k >= nx && touch(k - nx)) || (k < n - nx && touch(k + nx))) {
+      contact[k] = 1;
+      contacts++;
+    }
+  }
+  if (contacts) {
+    const thinGap = new Uint8Array(n);
+    for (let k = 0; k < n; k++) if (inp.valid[k] && tc[k] === tc[k] && tc[k] < level(inp.taperLevel, k)) thinGap[k] = 1;
+    const nearest = nearestOf(contact, thinGap, nx, ny);
+    let unresolved = 0;
+    for (let k = 0; k < n; k++) {
+      if (side[k] !== SIDE_C || flags[k] & FLAG_FORCED || !(tc[k] < level(inp.oceanLevel, k)) || nearest[k] !== 1) continue;
+      side[k] = 0;
+      flags[k] |= FLAG_UNRESOLVED;
+      unresolved++;
+    }
+    if (unresolved) {
+      warnings.push(
+        `thickness cannot resolve the transition in ${unresolved} cells: thin continental-side crust meets oceanic-range crust with no thinner gap; ` +
+          'those cells (between the taper and oceanic-crust thresholds) are marked unresolved and the lines stop there. Add picks or crust-type polygons.',
+      );
+    }
   }
 
   // Isolated thick components: continental blocks when large enough.
@@ -261,4 +310,45 @@ export function classify(inp: ClassifyInput): Classified {
   if (!contComp.some((v) => v === 1)) warnings.push('no continental crust reaches the landward edge: no continental side found (check the oceanward direction)');
   if (!oceanComp.some((v) => v === 1)) warnings.push('no crust above the oceanic-limit threshold reaches the oceanward edge: no oceanic side found');
   return { domains, flags, blocks, minBlockKm2, counts, warnings };
+}
+
+/**
+ * For every cell, which of two source sets is nearer (1 = a, 2 = b, 0 = neither exists), by a
+ * two-pass 3-4 chamfer distance (Borgefors 1986); ties go to b.
+ */
+function nearestOf(a: Uint8Array, b: Uint8Array, nx: number, ny: number): Uint8Array {
+  const n = nx * ny;
+  const dist = new Float64Array(n).fill(Infinity);
+  const lab = new Uint8Array(n);
+  for (let k = 0; k < n; k++) {
+    if (b[k]) (dist[k] = 0), (lab[k] = 2);
+    else if (a[k]) (dist[k] = 0), (lab[k] = 1);
+  }
+  const relax = (k: number, from: number, w: number) => {
+    const d = dist[from] + w;
+    if (d < dist[k]) (dist[k] = d), (lab[k] = lab[from]);
+  };
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const k = j * nx + i;
+      if (i > 0) relax(k, k - 1, 3);
+      if (j > 0) {
+        relax(k, k - nx, 3);
+        if (i > 0) relax(k, k - nx - 1, 4);
+        if (i < nx - 1) relax(k, k - nx + 1, 4);
+      }
+    }
+  }
+  for (let j = ny - 1; j >= 0; j--) {
+    for (let i = nx - 1; i >= 0; i--) {
+      const k = j * nx + i;
+      if (i < nx - 1) relax(k, k + 1, 3);
+      if (j < ny - 1) {
+        relax(k, k + nx, 3);
+        if (i < nx - 1) relax(k, k + nx + 1, 4);
+        if (i > 0) relax(k, k + nx - 1, 4);
+      }
+    }
+  }
+  return lab;
 }

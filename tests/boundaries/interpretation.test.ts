@@ -6,11 +6,11 @@ import { describe, expect, it } from 'vitest';
 import { yToRow } from '../../src/grid/geometry.js';
 import { pointSegmentDistance, type Ring } from '../../src/boundaries/planar.js';
 import { runPipeline, type PipelineResult } from '../../src/pipeline.js';
-import { DOMAIN_MOHO_GAP } from '../../src/domains/classify.js';
+import { DOMAIN_MOHO_GAP, FLAG_UNRESOLVED } from '../../src/domains/classify.js';
 import { DERIVED } from '../../src/derive/grids.js';
 import { outputFiles } from '../../src/export/outputs.js';
 import { readGeoTiff } from '../../src/io/geotiff-read.js';
-import { inGap, OCEANIC_U, picksOnRows, SYN_GEOMETRY as G, SYN_NX, SYN_NY, syntheticInputs, TAPER_U, uOf, xOfU, yOfRow, type Gap } from '../helpers/synthetic-margin.js';
+import { gaplessKm, inGap, OCEANIC_U, picksOnRows, thicknessKm, SYN_GEOMETRY as G, SYN_NX, SYN_NY, syntheticInputs, TAPER_U, uOf, xOfU, yOfRow, type Gap } from '../helpers/synthetic-margin.js';
 
 const CELL = 1000;
 const RIFT = 30; // Myr: young enough that the deepest oceanic cells would need older crust
@@ -80,7 +80,7 @@ describe('interpretation on a synthetic margin: Moho gaps, thin first oceanic cr
     for (const kind of ['oceanic-limit', 'oldest-onlapped-crust']) {
       for (const l of lines(r, kind)) for (const [x, y] of l) expect(inGap([GAP_LIMIT], Math.round(uAt(x)), Math.round(yToRow(G, y)))).toBe(false);
     }
-    const stops = r.boundaries.interruptions.filter((q) => q.kind === 'oceanic-limit');
+    const stops = r.boundaries.interruptions.filter((q) => q.kind === 'oceanic-limit' && q.cause === 'moho-gap');
     expect(stops.length).toBe(2); // the line enters the gap from the north and leaves it to the south
     for (const s of stops) {
       const j = yToRow(G, s.y);
@@ -172,6 +172,37 @@ describe('interpretation on a synthetic margin: Moho gaps, thin first oceanic cr
     };
     for (const p of r.boundaries.pieces) finite(p.properties, p.kind);
     finite(run(r).summary, 'summary');
+  });
+});
+
+describe('a segment where thin continental crust meets thin first oceanic crust (no gap)', () => {
+  // rows 0–79 as the standard profile (exhumed mantle), rows 80–159 without any crust thinner than 3 km
+  const r = runPipeline(syntheticInputs({ profile: (u, row) => (row >= 80 ? gaplessKm(u) : thicknessKm(u)) }), { params: { oceanwardAzimuth: 90 } });
+  const at = (u: number, j: number) => ({ d: r.classified.domains[j * SYN_NX + u + 130], f: r.classified.flags[j * SYN_NX + u + 130] });
+
+  it('says it cannot resolve the transition there, and only there', () => {
+    expect(r.warnings.join()).toMatch(/thin continental-side crust meets oceanic-range crust with no thinner gap/);
+    for (const u of [-5, 0, 5]) {
+      expect(at(u, 140).d, `u = ${u}`).toBe(4);
+      expect(at(u, 140).f & FLAG_UNRESOLVED, `u = ${u}`).toBeTruthy();
+    }
+    expect(at(-30, 140).d).toBe(3); // 6.5 km hyperextended crust: still continental
+    expect(at(15, 140).d).toBe(5); // 4.5 km: oceanic beyond the band
+    expect(at(60, 140).d).toBe(5);
+    // the standard segment keeps its domains: hyperextended crust beside the exhumed-mantle gap
+    for (let j = 0; j < 70; j++) expect(at(-5, j).f & FLAG_UNRESOLVED, `row ${j}`).toBeFalsy();
+    expect(at(-5, 20).d).toBe(3);
+    expect(at(40, 20).d).toBe(5);
+  });
+
+  it('the taper and oceanic limits stop at the unresolved band instead of drawing a boundary there', () => {
+    for (const kind of ['crustal-taper-limit', 'oceanic-limit']) {
+      for (const l of lines(r, kind)) for (const [x, y] of l) expect(r.classified.flags[Math.round(yToRow(G, y)) * SYN_NX + Math.round(uAt(x)) + 130] & FLAG_UNRESOLVED).toBeFalsy();
+      const rows = lines(r, kind).flat().map(([, y]) => yToRow(G, y));
+      expect(Math.max(...rows), kind).toBeLessThan(90);
+    }
+    expect(r.boundaries.interruptions.some((q) => q.cause === 'unresolved' && q.kind === 'crustal-taper-limit')).toBe(true);
+    expect((run(r).summary.lines_interrupted_by_unresolved_transition as unknown[]).length).toBeGreaterThan(0);
   });
 });
 

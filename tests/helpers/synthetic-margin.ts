@@ -61,6 +61,18 @@ export interface SynOptions {
   readonly picks?: readonly SynPick[];
   /** Extra thick cells (tc set to `km`) as [u, row] pairs. */
   readonly spots?: readonly { u: number; row: number; km: number }[];
+  /** Another thickness profile (km) for some rows, e.g. a segment with no gap. */
+  readonly profile?: (u: number, row: number) => number;
+}
+
+/** A segment where thin continental crust meets thin first oceanic crust with no thinner gap:
+ * 10 → 3 km over −60..0, then oceanic 3 → 5 km over 0..20, 5 → 6.5 km over 20..30, 6.5 km. */
+export function gaplessKm(u: number): number {
+  if (u <= -60) return thicknessKm(u);
+  if (u <= 0) return 10 - (7 * (u + 60)) / 60;
+  if (u <= 20) return 3 + u / 10;
+  if (u <= 30) return 5 + (1.5 * (u - 20)) / 10;
+  return 6.5;
 }
 
 export const inGap = (gaps: readonly Gap[], u: number, j: number) => gaps.some((g) => u >= g.u0 && u <= g.u1 && j >= g.j0 && j <= g.j1);
@@ -78,7 +90,7 @@ export function syntheticInputs(opt: SynOptions = {}): PipelineInputs {
       const w = waterDepth(u);
       seabed[k] = w;
       basement[k] = w + 1000;
-      const tc = (spots.get(`${u},${j}`) ?? thicknessKm(u)) * 1000;
+      const tc = (spots.get(`${u},${j}`) ?? (opt.profile ? opt.profile(u, j) : thicknessKm(u))) * 1000;
       moho[k] = inGap(opt.gaps ?? [], u, j) ? NaN : basement[k] + tc;
     }
   }
