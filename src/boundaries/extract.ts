@@ -178,7 +178,7 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   const onlapSkipped: BoundaryResult['onlap']['skipped'] = [];
   for (const q of inp.picks.filter((q) => q.kind === 'onlap')) {
     const offset = onlapOffset(q.x, q.y, lines.oceanic, inp.oceanward, reach);
-    if (!Number.isFinite(offset)) onlapSkipped.push({ id: q.id, reason: 'no landward limit of oceanic crust along the oceanward direction through the pick' });
+    if (!Number.isFinite(offset)) onlapSkipped.push({ id: q.id, reason: 'the landward limit of oceanic crust is not drawn along the oceanward direction through the pick (unresolved transition, Moho gap or no data), so its offset cannot be measured' });
     else onlapPoints.push({ x: q.x, y: q.y, id: q.id, offset, strike: strikeOf(inp.oceanward, q.x, q.y) });
   }
   onlapPoints.sort((a, b) => a.strike - b.strike);

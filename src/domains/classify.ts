@@ -4,8 +4,8 @@
  * Crust type is an interpretation: the thickness proxy decides sides by connectivity.
  *  - continental side: 4-connected cells with tc ≥ taper threshold that reach the landward edge;
  *  - oceanic side: 4-connected cells with tc ≥ the oceanic-limit threshold that reach the oceanward edge;
- *  - landward/oceanward edges: the grid-boundary cells in the outer tenth of the range of positions
- *    projected on the oceanward direction;
+ *  - landward/oceanward edges: the rim cells of the data (on the grid's edge or beside no data) in
+ *    the outer tenth of the range of positions projected on the oceanward direction;
  *  - isolated thick components (tc ≥ taper threshold) that neither reach the landward edge nor hold
  *    or touch oceanic-side crust: continental blocks when at least max(minBlockArea, minBlockCells
  *    cells) — labelled; smaller ones are treated like thin cells (enclosure decides, below);
@@ -15,10 +15,10 @@
  *  - oceanic side first (crust ≥ the oceanic-limit threshold connected to the oceanward edge), then
  *    the continental side (crust ≥ the taper threshold connected to the landward edge without passing
  *    through the oceanic side);
- *  - continental-side crust touching oceanic-side crust with no thinner gap (thin continental crust
- *    meeting thin first oceanic crust): thickness cannot place the transition; the continental-side
- *    cells thinner than the oceanic-limit threshold nearer that contact than any thin-gap cell are
- *    transition, flagged "unresolved";
+ *  - continental-side crust thinner than the oceanic-limit threshold is checked along the oceanward
+ *    direction: oceanward of a thin gap it is not continental; with thick continental crust landward
+ *    and oceanic-side crust oceanward and no gap either way (thin continental crust meeting thin
+ *    first oceanic crust) thickness cannot place the transition: transition, flagged "unresolved";
  *  - an oceanic-side component that reaches the landward edge too: cells thinner than the typical
  *    oceanic maximum in it become transition, flagged "unresolved".
  * Crust-type polygons (evidence) force their cells before connectivity is computed.
@@ -108,9 +108,14 @@ export function classify(inp: ClassifyInput): Classified {
   const xc = colToX(g, (nx - 1) / 2);
   const yc = rowToY(g, (ny - 1) / 2);
   const proj = (i: number, j: number) => (colToX(g, i) - xc) * inp.oceanward.ex + (rowToY(g, j) - yc) * inp.oceanward.ey;
+  // the rim of the data: cells with data on the grid's edge or beside a no-data cell (a grid whose
+  // corners are empty, e.g. reprojected, still has seeds)
   const boundary: number[] = [];
-  for (let i = 0; i < nx; i++) boundary.push(i, (ny - 1) * nx + i);
-  for (let j = 1; j < ny - 1; j++) boundary.push(j * nx, j * nx + nx - 1);
+  for (let k = 0; k < n; k++) {
+    if (!inp.valid[k]) continue;
+    const i = k % nx;
+    if (i === 0 || i === nx - 1 || k < nx || k >= n - nx || !inp.valid[k - 1] || !inp.valid[k + 1] || !inp.valid[k - nx] || !inp.valid[k + nx]) boundary.push(k);
+  }
   let dmin = Infinity;
   let dmax = -Infinity;
   for (const k of boundary) {
@@ -197,39 +202,68 @@ export function classify(inp: ClassifyInput): Classified {
     );
   }
 
-  // Where continental-side crust touches oceanic-side crust with no thinner gap between them (thin
-  // continental crust meeting thin first oceanic crust), thickness cannot place the transition. The
-  // continental-side cells thinner than the oceanic-limit threshold there are unresolved: those
-  // nearer to such a contact than to any thin-gap cell (thinner than the taper threshold), so
-  // hyperextended crust beside a real gap elsewhere along strike keeps its domain.
-  const contact = new Uint8Array(n);
-  let contacts = 0;
-  for (let k = 0; k < n; k++) {
-    if (side[k] !== SIDE_C || flags[k] & FLAG_FORCED) continue;
-    const i = k % nx;
-    const touch = (q: number) => side[q] === SIDE_O && !(flags[q] & FLAG_FORCED);
-    if ((i > 0 && touch(k - 1)) || (i < nx - 1 && touch(k + 1)) || (k >= nx && touch(k - nx)) || (k < n - nx && touch(k + nx))) {
-      contact[k] = 1;
-      contacts++;
-    }
-  }
-  if (contacts) {
-    const thinGap = new Uint8Array(n);
-    for (let k = 0; k < n; k++) if (inp.valid[k] && tc[k] === tc[k] && tc[k] < level(inp.taperLevel, k)) thinGap[k] = 1;
-    const nearest = nearestOf(contact, thinGap, nx, ny);
-    let unresolved = 0;
+  // Crust between the two thresholds that the continental flood reached is looked at along the
+  // oceanward direction (it can be linked to the land along strike, through a segment without a gap):
+  //  - landward of it a thin gap (thinner than the taper threshold) before thick continental crust:
+  //    it lies oceanward of the gap (thin first oceanic crust) — not continental;
+  //  - thick continental crust landward and oceanic-side crust oceanward with no gap either way:
+  //    thin continental crust meets thin oceanic crust, and thickness cannot place the transition —
+  //    unresolved;
+  //  - otherwise (a gap oceanward of it): hyperextended continental crust, as flooded.
+  let unresolved = 0;
+  {
+    // oceanward direction in index space (rows run with dy), and two directions 25° either side used
+    // where the first ray leaves the grid before it finds anything (near the grid's edges)
+    const ex = inp.oceanward.ex / g.dx;
+    const ey = inp.oceanward.ey / g.dy;
+    const a0 = Math.atan2(ey, ex);
+    const dirs = [0, 25, -25].map((d) => [Math.cos(a0 + (d * Math.PI) / 180), Math.sin(a0 + (d * Math.PI) / 180)]);
+    const maxSteps = nx + ny;
+    const HIT_NONE = 0;
+    const HIT_THICK = 1;
+    const HIT_GAP = 2;
+    const HIT_OCEAN = 3;
+    const ray = (i0: number, j0: number, di: number, dj: number): number => {
+      for (let s = 1; s < maxSteps; s++) {
+        const i = Math.round(i0 + di * s);
+        const j = Math.round(j0 + dj * s);
+        if (i < 0 || j < 0 || i >= nx || j >= ny) return HIT_NONE;
+        const q = j * nx + i;
+        const t = tc[q];
+        if (!inp.valid[q] || t !== t) return HIT_NONE; // no data or no Moho: cannot tell
+        if (t < level(inp.taperLevel, q)) return HIT_GAP;
+        if (side[q] === SIDE_O) return HIT_OCEAN;
+        if (side[q] === SIDE_C && t >= level(inp.oceanLevel, q)) return HIT_THICK;
+      }
+      return HIT_NONE;
+    };
+    const march = (i0: number, j0: number, sign: 1 | -1): number => {
+      for (const [di, dj] of dirs) {
+        const hit = ray(i0, j0, sign * di, sign * dj);
+        if (hit !== HIT_NONE) return hit;
+      }
+      return HIT_NONE;
+    };
+    const reassigned: number[] = [];
     for (let k = 0; k < n; k++) {
-      if (side[k] !== SIDE_C || flags[k] & FLAG_FORCED || !(tc[k] < level(inp.oceanLevel, k)) || nearest[k] !== 1) continue;
-      side[k] = 0;
-      flags[k] |= FLAG_UNRESOLVED;
-      unresolved++;
+      if (side[k] !== SIDE_C || (force && force[k] !== FORCE_NONE) || !(tc[k] < level(inp.oceanLevel, k))) continue;
+      const i = k % nx;
+      const j = (k - i) / nx;
+      const land = march(i, j, -1);
+      if (land === HIT_GAP) reassigned.push(k);
+      else if (land === HIT_THICK && march(i, j, 1) === HIT_OCEAN) {
+        reassigned.push(k);
+        flags[k] |= FLAG_UNRESOLVED;
+        unresolved++;
+      }
     }
-    if (unresolved) {
-      warnings.push(
-        `thickness cannot resolve the transition in ${unresolved} cells: thin continental-side crust meets oceanic-range crust with no thinner gap; ` +
-          'those cells (between the taper and oceanic-crust thresholds) are marked unresolved and the lines stop there. Add picks or crust-type polygons.',
-      );
-    }
+    for (const k of reassigned) side[k] = 0;
+  }
+  if (unresolved) {
+    warnings.push(
+      `thickness cannot resolve the transition in ${unresolved} cells: thin continental-side crust meets oceanic-range crust with no thinner gap; ` +
+        'those cells (between the taper and oceanic-crust thresholds) are marked unresolved and the taper and oceanic limits stop there. Crust-type polygons (from the seismic) can place it.',
+    );
   }
 
   // Isolated thick components: continental blocks when large enough.
@@ -310,45 +344,4 @@ export function classify(inp: ClassifyInput): Classified {
   if (!contComp.some((v) => v === 1)) warnings.push('no continental crust reaches the landward edge: no continental side found (check the oceanward direction)');
   if (!oceanComp.some((v) => v === 1)) warnings.push('no crust above the oceanic-limit threshold reaches the oceanward edge: no oceanic side found');
   return { domains, flags, blocks, minBlockKm2, counts, warnings };
-}
-
-/**
- * For every cell, which of two source sets is nearer (1 = a, 2 = b, 0 = neither exists), by a
- * two-pass 3-4 chamfer distance (Borgefors 1986); ties go to b.
- */
-function nearestOf(a: Uint8Array, b: Uint8Array, nx: number, ny: number): Uint8Array {
-  const n = nx * ny;
-  const dist = new Float64Array(n).fill(Infinity);
-  const lab = new Uint8Array(n);
-  for (let k = 0; k < n; k++) {
-    if (b[k]) (dist[k] = 0), (lab[k] = 2);
-    else if (a[k]) (dist[k] = 0), (lab[k] = 1);
-  }
-  const relax = (k: number, from: number, w: number) => {
-    const d = dist[from] + w;
-    if (d < dist[k]) (dist[k] = d), (lab[k] = lab[from]);
-  };
-  for (let j = 0; j < ny; j++) {
-    for (let i = 0; i < nx; i++) {
-      const k = j * nx + i;
-      if (i > 0) relax(k, k - 1, 3);
-      if (j > 0) {
-        relax(k, k - nx, 3);
-        if (i > 0) relax(k, k - nx - 1, 4);
-        if (i < nx - 1) relax(k, k - nx + 1, 4);
-      }
-    }
-  }
-  for (let j = ny - 1; j >= 0; j--) {
-    for (let i = nx - 1; i >= 0; i--) {
-      const k = j * nx + i;
-      if (i < nx - 1) relax(k, k + 1, 3);
-      if (j < ny - 1) {
-        relax(k, k + nx, 3);
-        if (i < nx - 1) relax(k, k + nx + 1, 4);
-        if (i > 0) relax(k, k + nx - 1, 4);
-      }
-    }
-  }
-  return lab;
 }

@@ -283,7 +283,8 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
         tieCount++;
         lines.push({
           id: `S${d.line.segment + 1}-${String(tieCount).padStart(2, '0')}`, kind: 'strike', segment: d.line.segment, coords, lengthKm: geodesicKm(coords),
-          zoneWidthKm: null, controlDistanceKm: null, score: null, rank: 0, cumulativeKm: 0, note: `tie ${t.note}`, ties: part.dips.map((q) => q.line.id),
+          zoneWidthKm: null, controlDistanceKm: null, score: null, rank: 0, cumulativeKm: 0,
+          note: part.dips.length ? `tie ${t.note}` : `tie ${t.note} (joins the tie pieces either side of ${d.line.id})`, ties: part.dips.map((q) => q.line.id),
         });
       }
     }

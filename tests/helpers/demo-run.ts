@@ -26,6 +26,6 @@ export async function demoInputs(opts: { picks?: boolean; licence?: boolean; iso
   };
 }
 
-export async function runDemo(opts: Parameters<typeof demoInputs>[0] = {}, params: Record<string, unknown> = {}): Promise<PipelineResult> {
-  return runPipeline(await demoInputs(opts), { params: { ...DEMO_PARAMS, ...params } });
+export async function runDemo(opts: Parameters<typeof demoInputs>[0] = {}, params: Record<string, unknown> = {}, excludePicks: string[] = []): Promise<PipelineResult> {
+  return runPipeline(await demoInputs(opts), { params: { ...DEMO_PARAMS, ...params }, excludePicks });
 }
