@@ -372,6 +372,8 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
         strike: strikeOf(oceanward, q.x, q.y),
       })),
       proxy,
+      oceanward,
+      reach,
       params,
     );
   }

@@ -5,14 +5,17 @@
  *    landward limit of oceanic crust) against the median of the up-to-four nearest other picks of
  *    its kind along strike (a median, so one bad neighbour does not flag the good ones). Flagged when
  *    it departs by more than pickTrendTolerance (offsets: pickProxyDistance). Needs two other picks.
- *  - proxy distance (continental-limit and oceanic-limit picks): the distance from the pick to the
- *    uncalibrated proxy line of its kind (the thickness isoline at the parameter's threshold, sides as
- *    the proxy decides them). Flagged beyond pickProxyDistance. Onlap picks have no such check: onlap
- *    may lie tens of km from the oceanic limit.
+ *  - proxy distance (continental-limit and oceanic-limit picks): how far the pick lies, along the
+ *    oceanward direction, from the uncalibrated proxy line of its kind (the thickness isoline at the
+ *    parameter's threshold, sides as the proxy decides them) at the pick's strike. Flagged beyond
+ *    pickProxyDistance; not checked where the proxy line does not cross the pick's strike (it stops at
+ *    a Moho gap or an unresolved transition). Onlap picks have no such check: onlap may lie tens of km
+ *    from the oceanic limit.
  */
 
+import type { Oceanward } from '../domains/direction.js';
 import type { Params } from '../params.js';
-import { distanceToControl, type Ring } from './planar.js';
+import { rayHits, type Ring } from './planar.js';
 
 export interface CheckablePick {
   readonly id: string;
@@ -52,7 +55,7 @@ const median = (v: number[]) => {
   return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
 };
 
-export function checkPicks(picks: readonly CheckablePick[], proxy: { taper: Ring[]; oceanic: Ring[] }, p: Params): PickCheck[] {
+export function checkPicks(picks: readonly CheckablePick[], proxy: { taper: Ring[]; oceanic: Ring[] }, oceanward: Oceanward, reach: number, p: Params): PickCheck[] {
   const out: PickCheck[] = [];
   for (const pk of picks) {
     const onlap = pk.kind === 'onlap';
@@ -80,8 +83,8 @@ export function checkPicks(picks: readonly CheckablePick[], proxy: { taper: Ring
     let proxyDistance: number | null = null;
     if (!onlap) {
       const lines = pk.kind === 'continental-limit' ? proxy.taper : proxy.oceanic;
-      const d = lines.length ? distanceToControl(pk.x, pk.y, [], lines) : Infinity;
-      proxyDistance = Number.isFinite(d) ? d : null;
+      const hits = rayHits([pk.x, pk.y], [oceanward.ex, oceanward.ey], reach, lines);
+      proxyDistance = hits.length ? Math.min(...hits.map(Math.abs)) : null;
       if (proxyDistance !== null && proxyDistance > p.pickProxyDistance) {
         reasons.push(`${(proxyDistance / 1000).toFixed(1)} km from the uncalibrated ${pk.kind === 'continental-limit' ? 'crustal taper limit' : 'oceanic limit'} (tolerance ${(p.pickProxyDistance / 1000).toFixed(1)} km)`);
       }
