@@ -24,20 +24,8 @@ export function viridis(t: number): RGB {
   return [Math.round(a[0] + (b[0] - a[0]) * f), Math.round(a[1] + (b[1] - a[1]) * f), Math.round(a[2] + (b[2] - a[2]) * f)];
 }
 
-export interface DomainStyle {
-  readonly code: number;
-  readonly name: string;
-  readonly colour: RGB;
-}
-
-export const DOMAIN_STYLES: DomainStyle[] = [
-  { code: 1, name: 'proximal continental', colour: [122, 86, 46] },
-  { code: 2, name: 'necking', colour: [196, 145, 62] },
-  { code: 3, name: 'hyperextended continental', colour: [232, 212, 150] },
-  { code: 4, name: 'transition (exhumed mantle or unresolved)', colour: [160, 150, 205] },
-  { code: 5, name: 'oceanic', colour: [52, 110, 170] },
-  { code: 6, name: 'Moho not imaged (basement picked, no Moho)', colour: [158, 158, 158] },
-];
+export { DOMAIN_STYLES, type DomainStyle } from '../domains/styles.js';
+import { DOMAIN_STYLES } from '../domains/styles.js';
 
 export interface RampSpec {
   readonly min: number;

@@ -4,6 +4,7 @@
  */
 
 import { APPLIES_TEXT, DERIVED } from '../derive/grids.js';
+import { DOMAIN_STYLES } from '../domains/styles.js';
 import { DOMAIN_NAMES, FLAG_ATYPICAL_OCEANIC, FLAG_BLOCK, FLAG_ENCLOSED_THIN, FLAG_FORCED, FLAG_UNRESOLVED } from '../domains/classify.js';
 import { WGS84 } from '../crs/registry.js';
 import { transformer } from '../crs/transform.js';
@@ -33,19 +34,61 @@ export function gridFiles(r: PipelineResult, run?: RunInfo): Record<string, Uint
   const files: Record<string, Uint8Array> = {};
   // provenance in every GeoTIFF: program, version and time (the parameters are in summary.json)
   const prov = run ? { software: `taperline ${run.version}`, dateTime: tiffTime(run.time) } : {};
+  const empty = new Set(emptyGrids(r).map((e) => e.name));
   for (const g of DERIVED) {
-    files[`grids/${g.name}.tif`] = writeGeoTiff(r.geometry, exportValues(r, g.name), { noData: 'nan', unit: g.unit || undefined, description: g.desc, ...prov });
+    if (empty.has(g.name)) continue;
+    files[`grids/${g.name}.tif`] = writeGeoTiff(r.geometry, exportValues(r, g.name), {
+      noData: 'nan',
+      unit: g.unit || undefined,
+      description: g.desc,
+      metadata: { APPLIES_OVER: APPLIES_TEXT[g.applies], ...(g.name.startsWith('beta') ? { UNBOUNDED: 'no data where beta is unbounded; unbounded-beta.tif marks those cells' } : {}) },
+      ...prov,
+    });
   }
+  const domainColours = new Map(DOMAIN_STYLES.map((d) => [d.code, d.colour] as const));
   files['grids/domains.tif'] = writeGeoTiff(r.geometry, r.classified.domains, {
     ...prov,
     noData: 0,
     description: `margin domains: ${DOMAIN_NAMES.map((n, k) => `${k} ${n}`).join('; ')}`,
+    colours: domainColours,
   });
+  files['grids/domains.tif.aux.xml'] = categories(DOMAIN_NAMES);
+  const unbounded = ['neither', 'zero crust (beta-crust unbounded)', 'subsidence beyond McKenzie beta infinity (continental cells)', 'both'];
   files['grids/unbounded-beta.tif'] = writeGeoTiff(r.geometry, r.applied.unboundedBeta, {
     ...prov,
-    description: 'unbounded beta: 1 zero crust (beta-crust unbounded), 2 subsidence beyond McKenzie beta infinity (continental cells), 3 both, 0 neither',
+    description: `unbounded beta: ${unbounded.map((n, k) => `${k} ${n}`).join('; ')}`,
+    colours: new Map([[0, [255, 255, 255]], [1, [230, 57, 70]], [2, [69, 123, 157]], [3, [29, 53, 87]]]),
   });
+  files['grids/unbounded-beta.tif.aux.xml'] = categories(unbounded);
   return files;
+}
+
+/**
+ * Derived grids with no value anywhere (a model that applies to no cell, or inputs it needs missing):
+ * not written, so a GIS never gets an empty raster; the summary lists them with the reason.
+ */
+export function emptyGrids(r: PipelineResult): { name: string; reason: string }[] {
+  const out: { name: string; reason: string }[] = [];
+  for (const g of DERIVED) {
+    const v = r.grids[g.name];
+    let any = false;
+    for (let k = 0; k < v.length; k++) if (v[k] === v[k]) { any = true; break; }
+    if (any) continue;
+    const reason =
+      g.name === 'oceanic-depth-anomaly'
+        ? 'no oceanic cell is deeper than the age–depth curve allows for crust younger than the rift'
+        : `no cell where it applies has the inputs it needs (${APPLIES_TEXT[g.applies]}; see the warnings)`;
+    out.push({ name: g.name, reason });
+  }
+  return out;
+}
+
+/** GDAL's PAM side-car with the category names of a class grid (gdalinfo lists them). */
+function categories(names: readonly string[]): Uint8Array {
+  const esc = (t: string) => t.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+  return enc.encode(
+    `<PAMDataset>\n  <PAMRasterBand band="1">\n    <CategoryNames>\n${names.map((n) => `      <Category>${esc(n)}</Category>`).join('\n')}\n    </CategoryNames>\n  </PAMRasterBand>\n</PAMDataset>\n`,
+  );
 }
 
 function tiffTime(iso: string): string | undefined {
@@ -124,6 +167,7 @@ export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCol
     lines_interrupted_by_moho_gap: r.boundaries.interruptions.filter((q) => q.cause === 'moho-gap').map((q) => ({ kind: q.kind, ...lonLat(r, q.x, q.y) })),
     lines_interrupted_by_unresolved_transition: r.boundaries.interruptions.filter((q) => q.cause === 'unresolved').map((q) => ({ kind: q.kind, ...lonLat(r, q.x, q.y) })),
     grid_rules: Object.fromEntries(DERIVED.map((d) => [d.name, APPLIES_TEXT[d.applies]])),
+    grids_not_written: emptyGrids(r),
     depth_anomaly_reference: r.applied.anomalyReference,
     flagged_cells: { ...r.derived.flags, ...r.applied.counts, ...classFlagCounts(r.classified.flags) },
     domain_cells: r.classified.counts,

@@ -7,7 +7,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { geodesicLength, geodesicRingArea } from '../../src/crs/geodesy.js';
 import { lonLatSignedArea, rfcPolygons, splitLine } from '../../src/export/rfc7946.js';
 import { taperline } from '../helpers/cli.js';
-import { toolOrSkip } from '../helpers/tools.js';
+import { GDAL_PYTHON, GDAL_SAMPLES, toolOrSkip } from '../helpers/tools.js';
 import { rfc7946Violations } from '../helpers/rfc7946.js';
 
 describe('RFC 7946 helpers', () => {
@@ -40,7 +40,13 @@ describe('taperline demo outputs', () => {
     const names = readdirSync(out).sort();
     expect(names).toEqual(['boundaries-whole-grid.geojson', 'boundaries.geojson', 'domains.geojson', 'grids', 'summary.json']);
     expect(readdirSync(join(out, 'grids'))).toContain('crustal-thickness.tif');
-    expect(readdirSync(join(out, 'grids'))).toHaveLength(17); // 15 derived grids, domains, unbounded-beta mask
+    const grids = readdirSync(join(out, 'grids'));
+    const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
+    // every derived grid that holds a value, domains and the unbounded-β mask, with their category side-cars
+    const empty = (summary.grids_not_written as { name: string }[]).map((q) => q.name);
+    expect(empty).toEqual(['oceanic-depth-anomaly']); // the demo's oceanic depths all fit GDH1 before the rift
+    expect(grids.filter((f) => f.endsWith('.tif'))).toHaveLength(15 - empty.length + 2);
+    expect(grids.filter((f) => f.endsWith('.aux.xml')).sort()).toEqual(['domains.tif.aux.xml', 'unbounded-beta.tif.aux.xml']);
   });
 
   it('boundaries and domains follow RFC 7946', () => {
@@ -90,19 +96,40 @@ describe('taperline demo outputs', () => {
   });
 
   const gdal = toolOrSkip('gdal');
+  const gdalPython = toolOrSkip('gdal-python');
+  it.skipIf(!gdalPython)("every grid passes GDAL's validate_cloud_optimized_geotiff.py and has finite statistics", () => {
+    for (const f of readdirSync(join(out, 'grids')).filter((q) => q.endsWith('.tif'))) {
+      const path = join(out, 'grids', f);
+      const text = execFileSync(GDAL_PYTHON, [`${GDAL_SAMPLES}/validate_cloud_optimized_geotiff.py`, '--full-check=yes', path], { encoding: 'utf8' });
+      expect(text, f).toMatch(/is a valid cloud optimized GeoTIFF/);
+      expect(text, f).not.toMatch(/warning/i);
+      const info = JSON.parse(execFileSync('gdalinfo', ['-json', '-stats', path], { encoding: 'utf8' }));
+      const b = info.bands[0];
+      for (const k of ['minimum', 'maximum', 'mean', 'stdDev']) expect(Number.isFinite(b[k]), `${f} ${k} = ${b[k]}`).toBe(true);
+    }
+  });
   it.skipIf(!gdal)('GDAL opens every output: grids with CRS, extent and NoData; vectors valid', () => {
-    for (const f of readdirSync(join(out, 'grids'))) {
+    for (const f of readdirSync(join(out, 'grids')).filter((q) => q.endsWith('.tif'))) {
       const info = JSON.parse(execFileSync('gdalinfo', ['-json', join(out, 'grids', f)], { encoding: 'utf8' }));
       expect(info.geoTransform).toEqual([350_000, 500, 0, 6_225_000, 0, -500]);
       expect(info.coordinateSystem.wkt).toMatch(/ID\["EPSG",32709\]\]$/);
       expect(info.size).toEqual([600, 400]);
       expect(info.metadata[''].TIFFTAG_SOFTWARE).toMatch(/^taperline /); // provenance
+      // cloud-optimized layout: 256 × 256 tiles, DEFLATE, internal overviews
+      expect(info.bands[0].block).toEqual([256, 256]);
+      expect(info.metadata.IMAGE_STRUCTURE.COMPRESSION).toBe('DEFLATE');
+      expect(info.bands[0].overviews.map((o: { size: number[] }) => o.size)).toEqual([[300, 200], [150, 100]]);
       if (f === 'domains.tif') {
         expect(info.bands[0].type).toBe('Byte');
         expect(info.bands[0].noDataValue).toBe(0);
+        expect(info.bands[0].colorInterpretation).toBe('Palette');
+        expect(info.bands[0].colorTable.entries[5].slice(0, 3)).toEqual([52, 110, 170]);
+        expect(info.bands[0].categories.slice(0, 7)).toEqual(['no data', 'proximal continental', 'necking', 'hyperextended continental', 'transition (exhumed mantle or unresolved)', 'oceanic', 'Moho not imaged']);
       } else if (f === 'unbounded-beta.tif') {
         expect(info.bands[0].type).toBe('Byte');
+        expect(info.bands[0].categories[1]).toMatch(/zero crust/);
       } else {
+        expect(info.bands[0].description).toBeTruthy();
         expect(info.bands[0].type).toBe('Float32');
         expect(String(info.bands[0].noDataValue)).toBe('NaN');
       }

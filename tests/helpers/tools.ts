@@ -22,15 +22,22 @@ export function haveGdal(): boolean {
   return probe('gdalinfo', ['--version']);
 }
 
+/** Debian's python3 with GDAL's bindings, for GDAL's validate_gpkg.py and validate_cloud_optimized_geotiff.py. */
+export const GDAL_PYTHON = '/usr/bin/python3';
+export const GDAL_SAMPLES = '/usr/lib/python3/dist-packages/osgeo_utils/samples';
+export function haveGdalPython(): boolean {
+  return probe(GDAL_PYTHON, ['-c', 'from osgeo import gdal']) && existsSync(`${GDAL_SAMPLES}/validate_cloud_optimized_geotiff.py`);
+}
+
 export function haveChromium(): boolean {
   return existsSync(CHROMIUM);
 }
 
 /** Returns true when the tool is there; otherwise prints how to enable the tests, or throws in CI. */
-export function toolOrSkip(name: 'gdal' | 'chromium'): boolean {
-  const ok = name === 'gdal' ? haveGdal() : haveChromium();
+export function toolOrSkip(name: 'gdal' | 'chromium' | 'gdal-python'): boolean {
+  const ok = name === 'gdal' ? haveGdal() : name === 'gdal-python' ? haveGdalPython() : haveChromium();
   if (ok) return true;
-  const how = name === 'gdal' ? 'apt-get install gdal-bin' : 'apt-get install chromium fonts-dejavu-core';
+  const how = name === 'gdal' ? 'apt-get install gdal-bin' : name === 'gdal-python' ? 'apt-get install python3-gdal' : 'apt-get install chromium fonts-dejavu-core';
   if (REQUIRE_TOOLS) throw new Error(`${name} is required here (TAPERLINE_REQUIRE_TOOLS=1) but not found: ${how}`);
   console.warn(`\n  NOTE: ${name} not found; tests that need it are SKIPPED. Enable them with: ${how}\n`);
   return false;
