@@ -338,7 +338,6 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     seismicLines: lines.flatMap((l) => l.coords).map((c) => simplifyPath(c, 1)),
     isochrons,
     licence: licence ? licence.map((r) => simplifyPath(r, 1)) : null,
-    licenceMask,
     oceanicAgeMin: seabed ? applied.grids['oceanic-age-min'] : null,
     oceanicAgeMax: seabed ? applied.grids['oceanic-age-max'] : null,
   });

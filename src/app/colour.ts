@@ -1,27 +1,26 @@
 /**
  * Colour ramps and raster colouring for display. Continuous grids use viridis (van der Walt & Smith,
- * matplotlib 2015; perceptually uniform and readable with common colour-vision deficiencies), sampled
- * at 11 published anchor colours and interpolated linearly in sRGB. Domains use a categorical set of
+ * matplotlib 2015; perceptually uniform and readable with common colour-vision deficiencies) from
+ * d3-scale-chromatic, a maintained colour library. Domains use a categorical set of
  * our own. No data is transparent; +∞ (unbounded β) gets its own colour and legend entry.
  */
 
-export type RGB = [number, number, number];
+import { interpolateViridis } from 'd3-scale-chromatic';
 
-// viridis at t = 0, 0.1, …, 1 (matplotlib's _viridis_data, rounded to 8 bits)
-const VIRIDIS: RGB[] = [
-  [68, 1, 84], [72, 36, 117], [65, 68, 135], [53, 95, 141], [42, 120, 142], [33, 145, 140],
-  [34, 168, 132], [68, 191, 112], [122, 209, 81], [189, 223, 38], [253, 231, 37],
-];
+export type RGB = [number, number, number];
 
 export const UNBOUNDED_COLOUR: RGB = [230, 57, 70];
 
+/** viridis from d3-scale-chromatic (van der Walt & Smith's matplotlib colormap, 256 published samples). */
 export function viridis(t: number): RGB {
-  const x = Math.min(1, Math.max(0, t)) * (VIRIDIS.length - 1);
-  const k = Math.min(VIRIDIS.length - 2, Math.floor(x));
-  const f = x - k;
-  const a = VIRIDIS[k];
-  const b = VIRIDIS[k + 1];
-  return [Math.round(a[0] + (b[0] - a[0]) * f), Math.round(a[1] + (b[1] - a[1]) * f), Math.round(a[2] + (b[2] - a[2]) * f)];
+  const c = rgb(interpolateViridis(Math.min(1, Math.max(0, t))));
+  return [c.r, c.g, c.b];
+}
+
+/** "#rrggbb" → channels. */
+function rgb(hex: string): { r: number; g: number; b: number } {
+  const n = parseInt(hex.slice(1), 16);
+  return { r: (n >> 16) & 255, g: (n >> 8) & 255, b: n & 255 };
 }
 
 export { DOMAIN_STYLES, type DomainStyle } from '../domains/styles.js';

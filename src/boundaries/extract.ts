@@ -19,6 +19,7 @@ import type { Oceanward } from '../domains/direction.js';
 import type { Params } from '../params.js';
 import { sideField } from './fields.js';
 import { offsetAt, onlapLines, onlapOffset, strikeOf, type OnlapPoint } from './onlap.js';
+import { featureCollection, intersect, polygon as turfPolygon } from '@turf/turf';
 import { simplifyShared } from './simplify.js';
 import { clipLineToPolygon, distanceToControl, insideRings, signedArea, type Ring } from './planar.js';
 
@@ -68,7 +69,6 @@ export interface BoundaryInput {
   readonly isochrons: Isochron[];
   /** Licence rings in the analysis CRS, or null. */
   readonly licence: Ring[] | null;
-  readonly licenceMask: Uint8Array | null;
   readonly oceanicAgeMin: Float32Array | null;
   readonly oceanicAgeMax: Float32Array | null;
 }
@@ -146,31 +146,27 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   // transition cell thicker than the taper threshold would otherwise read as "just inside").
   const nearC = dilate(continental, nx, ny);
   const nearO = dilate(oceanic, nx, ny);
-  const cotField = (mask: Uint8Array | null) => {
-    const h = new Float32Array(nx * ny);
-    for (let k = 0; k < h.length; k++) {
-      const t = nearC[k] ? -gTaper[k] : FAR;
-      const o = nearO[k] ? -gOcean[k] : FAR;
-      h[k] = mask && !mask[k] ? NaN : gTaper[k] !== gTaper[k] ? NaN : Math.min(t, o);
-    }
-    return h;
-  };
-  let cot = zonePolygons(traceLevel(grid(cotField(null)), 0, true), toMap);
-  let cotLicence = inp.licence ? zonePolygons(traceLevel(grid(cotField(inp.licenceMask)), 0, true), toMap) : [];
+  const cotField = new Float32Array(nx * ny);
+  for (let k = 0; k < cotField.length; k++) {
+    const t = nearC[k] ? -gTaper[k] : FAR;
+    const o = nearO[k] ? -gOcean[k] : FAR;
+    cotField[k] = gTaper[k] !== gTaper[k] ? NaN : Math.min(t, o);
+  }
+  let cot = zonePolygons(traceLevel(grid(cotField), 0, true), toMap);
 
   // 2. Optional simplification, once for all lines and the COT rings together, so shared borders stay shared.
   if (p.simplifyTolerance > 0) {
     const keys = ['taper', 'oceanic', 'necking', 'coupling'] as const;
     const lineList = keys.flatMap((k) => lines[k]);
-    const polys = [...cot, ...cotLicence];
-    const simp = simplifyShared(lineList, polys.flat(), p.simplifyTolerance);
+    const simp = simplifyShared(lineList, cot.flat(), p.simplifyTolerance);
     let q = 0;
     for (const k of keys) lines[k] = lines[k].map(() => simp.lines[q++]);
     q = 0;
-    const rebuilt = polys.map((rings) => rings.map(() => simp.rings[q++]));
-    cot = rebuilt.slice(0, cot.length);
-    cotLicence = rebuilt.slice(cot.length);
+    cot = cot.map((rings) => rings.map(() => simp.rings[q++]));
   }
+  // The zone inside the licence: exact polygon intersection in the analysis CRS (turf's intersect,
+  // polyclip-ts); areas are then measured geodesically on export.
+  const cotLicence = inp.licence ? clipPolygons(cot, inp.licence) : [];
 
   // 3. Oldest onlapped crust from the oceanic limit and the onlap picks.
   const reach = Math.hypot(nx * g.dx, ny * g.dy);
@@ -272,7 +268,7 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
     const f = pickedFraction(rings, limitPicks, p.pickReach);
     return {
       kind: 'cot-zone',
-      rule: 'between the crustal taper limit and the landward limit of oceanic crust' + (clipped ? '; cut to the licence at cell centres' : ''),
+      rule: 'between the crustal taper limit and the landward limit of oceanic crust' + (clipped ? '; clipped exactly to the licence' : ''),
       placed_by: `taper limit: ${inp.taperSource}; oceanic limit: ${inp.oceanSource}`,
       evidence: f >= 0.999 ? 'picks' : f > 0 ? 'mixed' : 'proxy',
       evidence_picks_fraction: round3(f),
@@ -293,7 +289,7 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
       }
     }
     for (const rings of cotLicence) inLicence.push({ kind: 'cot-zone', coords: rings, properties: cotProps(rings, true) });
-    notes.push('inside the licence, lines are clipped exactly; the COT zone polygon is cut at the cell centres inside the licence (within one cell of its edge)');
+    notes.push('inside the licence, lines and the COT zone polygon are clipped exactly (in the analysis CRS)');
   }
   const gaps = interruptions.filter((q) => q.cause === 'moho-gap').length;
   const unres = interruptions.length - gaps;
@@ -334,6 +330,23 @@ function offsetRange(coords: Ring, points: OnlapPoint[], o: Oceanward): [number,
     hi = Math.max(hi, d);
   }
   return [round3(lo / 1000), round3(hi / 1000)];
+}
+
+/** Polygons (outer + holes) intersected with the licence rings (each ring one licence polygon). */
+function clipPolygons(polys: Ring[][], licence: Ring[]): Ring[][] {
+  const close = (r: Ring): Ring => (r[0][0] === r[r.length - 1][0] && r[0][1] === r[r.length - 1][1] ? r : [...r, r[0]]);
+  const lic = licence.filter((r) => r.length >= 3).map((r) => turfPolygon([close(r)]));
+  const out: Ring[][] = [];
+  for (const rings of polys) {
+    const zone = turfPolygon(rings.map(close));
+    for (const l of lic) {
+      const hit = intersect(featureCollection([zone, l]));
+      if (!hit) continue;
+      const parts = hit.geometry.type === 'Polygon' ? [hit.geometry.coordinates] : hit.geometry.coordinates;
+      for (const p of parts) out.push(p.map((r) => r.map(([x, y]) => [x, y] as [number, number])));
+    }
+  }
+  return out;
 }
 
 /** Share (by length) of a polygon's border within `reach` of a pick. */

@@ -5,6 +5,7 @@
  */
 
 import { resolveCrs, WGS84, type Crs } from '../crs/registry.js';
+import { kinks, polygon as turfPolygon } from '@turf/turf';
 import { InputError } from './errors.js';
 
 export type Position = [number, number];
@@ -112,6 +113,11 @@ export function expectKinds(set: VectorSet, role: 'licence' | 'lines' | 'picks' 
       const a = Number(f.properties.age_ma);
       if (!Number.isFinite(a) || a < 0) throw new InputError(set.file, `isochron ${f.index} needs a numeric "age_ma" property`);
     }
+    if (want === 'polygon') polygonValid(set.file, f);
+    if (want === 'line') {
+      const l = f.parts[0];
+      if (!l.some((p) => p[0] !== l[0][0] || p[1] !== l[0][1])) throw new InputError(set.file, `line ${f.index} needs at least two distinct positions`);
+    }
     if (role === 'crust') {
       const t = f.properties.crust;
       if (t !== 'continental' && t !== 'oceanic' && t !== 'transition') {
@@ -119,4 +125,28 @@ export function expectKinds(set: VectorSet, role: 'licence' | 'lines' | 'picks' 
       }
     }
   }
+}
+
+/**
+ * A polygon Taperline can measure and clip: every ring closed with at least four positions, non-zero
+ * area, and no edge crossing another (turf's kinks; a bow-tie would make areas meaningless — turf's
+ * booleanValid accepts one, see STACK.md). The message names the file, the feature and the crossing.
+ */
+function polygonValid(file: string, f: VectorFeature): void {
+  f.parts.forEach((r, k) => {
+    const where = `polygon ${f.index}${f.parts.length > 1 ? `, ring ${k}` : ''}`;
+    if (r.length < 4) throw new InputError(file, `${where} has ${r.length} positions; a ring needs at least 4 (closed)`);
+    if (r[0][0] !== r[r.length - 1][0] || r[0][1] !== r[r.length - 1][1]) throw new InputError(file, `${where} is not closed (its first and last positions differ)`);
+  });
+  const crossings = kinks(turfPolygon(f.parts as number[][][])).features;
+  if (crossings.length) {
+    const [x, y] = crossings[0].geometry.coordinates;
+    const fmt = (v: number) => (Math.abs(v) < 1000 ? v.toFixed(5) : v.toFixed(1));
+    throw new InputError(file, `polygon ${f.index} crosses itself at (${fmt(x)}, ${fmt(y)})${crossings.length > 1 ? ` and ${crossings.length - 1} more places` : ''}: areas and clipping need a simple polygon`);
+  }
+  f.parts.forEach((r, k) => {
+    let a = 0;
+    for (let q = 0; q + 1 < r.length; q++) a += r[q][0] * r[q + 1][1] - r[q + 1][0] * r[q][1];
+    if (a === 0) throw new InputError(file, `polygon ${f.index}${f.parts.length > 1 ? `, ring ${k}` : ''} has zero area`);
+  });
 }

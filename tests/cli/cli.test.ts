@@ -24,6 +24,9 @@ beforeAll(() => {
   }
   writeFileSync(f('huge.tif'), big);
   writeFileSync(f('bad-params.json'), JSON.stringify({ rhoMantle: 2500 }));
+  // a bow-tie licence: its edges cross at (-128.5, -35.0)
+  const bow = [[-129, -35.5], [-128, -34.5], [-128, -35.5], [-129, -34.5], [-129, -35.5]];
+  writeFileSync(f('bowtie.geojson'), JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [bow] } }] }));
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
@@ -50,6 +53,7 @@ describe('taperline CLI', () => {
     ['a declared size beyond memory', ['--seabed', f('huge.tif')], /huge\.tif: declares 100000 × 100000 cells/],
     ['impossible parameters', ['--params', f('bad-params.json')], /bad-params\.json: mantle density \(2500\) must exceed crust density/],
     ['a licence that is not a polygon file', ['--licence', f('moho.tif')], /moho\.tif: is not valid JSON/],
+    ['a self-intersecting licence', ['--licence', f('bowtie.geojson')], /bowtie\.geojson: polygon 0 crosses itself at \(-128\.50000, -35\.00000\)/],
   ];
   for (const [what, args, message] of bad) {
     it(`exits 2 on ${what}, with one line naming the file, and leaves no output behind`, () => {

@@ -1,8 +1,9 @@
 // GeoJSON output against RFC 7946 rules, and the outputs opened by GDAL (an independent reader).
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { demoFiles } from '../../fixtures/demo-files.js';
 import { afterAll, describe, expect, it } from 'vitest';
 import { geodesicLength, geodesicRingArea } from '../../src/crs/geodesy.js';
 import { lonLatSignedArea, rfcPolygons, splitLine } from '../../src/export/rfc7946.js';
@@ -97,6 +98,28 @@ describe('taperline demo outputs', () => {
 
   const gdal = toolOrSkip('gdal');
   const gdalPython = toolOrSkip('gdal-python');
+  it.skipIf(!gdal)('the COT zone inside the licence has the geodesic area of the exact polygon intersection (GDAL/SpatiaLite ST_Intersection, ST_Area on the ellipsoid)', () => {
+    const whole = JSON.parse(readFileSync(join(out, 'boundaries-whole-grid.geojson'), 'utf8'));
+    const licence = JSON.parse(new TextDecoder().decode(demoFiles()['licence.geojson']));
+    const both = {
+      type: 'FeatureCollection',
+      features: [
+        ...whole.features.filter((f: { properties: { kind: string } }) => f.properties.kind === 'cot-zone').map((f: { geometry: unknown }) => ({ type: 'Feature', properties: { kind: 'cot-zone' }, geometry: f.geometry })),
+        { ...licence.features[0], properties: { kind: 'licence' } },
+      ],
+    };
+    const path = join(out, 'both.geojson');
+    writeFileSync(path, JSON.stringify(both));
+    const text = execFileSync('ogrinfo', ['-q', '-dialect', 'SQLite', '-sql', "SELECT SUM(ST_Area(ST_Intersection(a.geometry, b.geometry), 1)) / 1e6 AS km2 FROM both a, both b WHERE a.kind = 'cot-zone' AND b.kind = 'licence'", path], { encoding: 'utf8' });
+    rmSync(path);
+    const gdalKm2 = Number(/km2 \(Real\) = ([\d.]+)/.exec(text)?.[1]);
+    const ours = JSON.parse(readFileSync(join(out, 'boundaries.geojson'), 'utf8')).features
+      .filter((f: { properties: { kind: string } }) => f.properties.kind === 'cot-zone')
+      .reduce((a: number, f: { properties: { area_km2: number } }) => a + f.properties.area_km2, 0);
+    expect(gdalKm2).toBeGreaterThan(1000);
+    expect(Math.abs(ours - gdalKm2) / gdalKm2).toBeLessThan(1e-4); // clipping in UTM vs lon/lat: the licence edges are densified every 1 km
+  });
+
   it.skipIf(!gdalPython)("every grid passes GDAL's validate_cloud_optimized_geotiff.py and has finite statistics", () => {
     for (const f of readdirSync(join(out, 'grids')).filter((q) => q.endsWith('.tif'))) {
       const path = join(out, 'grids', f);
