@@ -85,6 +85,9 @@ export interface BoundaryResult {
   readonly pieces: BoundaryPiece[];
   /** Lines clipped to the licence (same pieces model), or null without a licence. */
   readonly inLicence: BoundaryPiece[] | null;
+  /** One feature per continuous line (whole grid), and clipped to the licence (null without one). */
+  readonly lines: BoundaryPiece[];
+  readonly linesInLicence: BoundaryPiece[] | null;
   readonly missing: { kind: BoundaryKind; reason: string }[];
   readonly notes: string[];
   /** Line ends where a line stops because the Moho is not imaged beyond it. */
@@ -152,7 +155,7 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
     const o = nearO[k] ? -gOcean[k] : FAR;
     cotField[k] = gTaper[k] !== gTaper[k] ? NaN : Math.min(t, o);
   }
-  let cot = zonePolygons(traceLevel(grid(cotField), 0, true), toMap);
+  let cot = zonePolygons(traceLevel(grid(cotField), 0, true), g);
 
   // 2. Optional simplification, once for all lines and the COT rings together, so shared borders stay shared.
   if (p.simplifyTolerance > 0) {
@@ -189,6 +192,7 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   const notes: string[] = [];
   const pieces: BoundaryPiece[] = [];
   const interruptions: GapInterruption[] = [];
+  const wholeLines: BoundaryPiece[] = [];
   /** What stops a line end: a Moho gap or an unresolved cell among the cells around it, or nothing. */
   const stopAt = (x: number, y: number): GapInterruption['cause'] | null => {
     const ci = xToCol(g, x);
@@ -259,6 +263,28 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
         }
         pieces.push({ kind: spec.kind, coords: [piece.coords], properties: props });
       });
+      // the same line whole, for GIS use: evidence as shares of its length
+      const len = (c: Ring) => c.reduce((a, pt, k) => (k ? a + Math.hypot(pt[0] - c[k - 1][0], pt[1] - c[k - 1][1]) : 0), 0);
+      const total = len(line);
+      const share = (e: Evidence) => (total > 0 ? parts.filter((q) => q.evidence === e).reduce((a, q) => a + len(q.coords), 0) / total : 0);
+      const picked = share('picks');
+      const maxD = Math.max(...dist);
+      wholeLines.push({
+        kind: spec.kind,
+        coords: [line],
+        properties: {
+          kind: spec.kind,
+          rule: spec.rule,
+          placed_by: spec.source,
+          evidence: picked >= 0.999 ? 'picks' : picked > 0 ? 'mixed' : 'proxy',
+          evidence_picks_fraction: round3(picked),
+          far_from_control_fraction: round3(share('proxy-far')),
+          control_distance_km: Number.isFinite(maxD) ? round3(maxD / 1000) : null,
+          ends_at_moho_gap: startGap || endGap,
+          ends_at_unresolved: startStop === 'unresolved' || endStop === 'unresolved',
+          closed,
+        },
+      });
     }
   }
 
@@ -280,12 +306,21 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
 
   // 6. Licence.
   let inLicence: BoundaryPiece[] | null = null;
+  let linesInLicence: BoundaryPiece[] | null = null;
   if (inp.licence) {
+    linesInLicence = [];
+    for (const l of wholeLines) {
+      for (const part of clipLineToPolygon(l.coords[0], inp.licence)) {
+        const c = dedupe(part);
+        if (c.length >= 2) linesInLicence.push({ kind: l.kind, coords: [c], properties: { ...l.properties, clipped_to_licence: true, closed: isClosed(c) } });
+      }
+    }
     inLicence = [];
     for (const piece of pieces) {
       if (piece.kind === 'cot-zone') continue;
       for (const part of clipLineToPolygon(piece.coords[0], inp.licence)) {
-        inLicence.push({ kind: piece.kind, coords: [part], properties: { ...piece.properties, clipped_to_licence: true, closed: false } });
+        const c = dedupe(part);
+        if (c.length >= 2) inLicence.push({ kind: piece.kind, coords: [c], properties: { ...piece.properties, clipped_to_licence: true, closed: isClosed(c) } });
       }
     }
     for (const rings of cotLicence) inLicence.push({ kind: 'cot-zone', coords: rings, properties: cotProps(rings, true) });
@@ -296,7 +331,7 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   if (gaps) notes.push(`${gaps} line end${gaps > 1 ? 's stop' : ' stops'} where the Moho is not imaged (see lines_interrupted_by_moho_gap)`);
   if (unres) notes.push(`${unres} line end${unres > 1 ? 's stop' : ' stops'} where thickness cannot resolve the transition (see lines_interrupted_by_unresolved_transition)`);
   const support = { taper: lines.taper, oceanic: lines.oceanic, onlap, necking: lines.necking, coupling: lines.coupling };
-  return { pieces, inLicence, missing, notes, interruptions, onlap: { points: onlapPoints, skipped: onlapSkipped }, support };
+  return { pieces, inLicence, lines: wholeLines, linesInLicence, missing, notes, interruptions, onlap: { points: onlapPoints, skipped: onlapSkipped }, support };
 }
 
 const km = (m: number) => (m / 1000).toFixed(1);
@@ -313,8 +348,17 @@ function linesToMap(g: GridGeometry, l: Lines): Ring[] {
     const [b, e] = lineRange(l, k);
     const r: Ring = [];
     for (let q = b; q < e; q++) r.push([colToX(g, l.positions[2 * q]), rowToY(g, l.positions[2 * q + 1])]);
-    out.push(r);
+    const c = dedupe(r);
+    // a line of one distinct position (a sample exactly at the level) is no line
+    if (c.length >= 2 && !(c.length === 2 && c[0][0] === c[1][0] && c[0][1] === c[1][1])) out.push(c);
   }
+  return out;
+}
+
+/** Without consecutive duplicate positions. */
+function dedupe(r: Ring): Ring {
+  const out: Ring = [];
+  for (const p of r) if (!out.length || out[out.length - 1][0] !== p[0] || out[out.length - 1][1] !== p[1]) out.push(p);
   return out;
 }
 
@@ -440,11 +484,20 @@ function ageProperties(coords: Ring, g: GridGeometry, oldest: Isochron | null, a
 }
 
 /** Filled rings → polygons (outer ring + holes) in map coordinates. */
-function zonePolygons(l: Lines, toMap: (l: Lines) => Ring[]): Ring[][] {
-  const rings = toMap(l);
+function zonePolygons(l: Lines, g: GridGeometry): Ring[][] {
   // In index space outer rings have positive shoelace area (y-down); the map transform may flip y.
-  const indexAreas = rings.map((_, k) => ringArea(l, k));
-  const outers = rings.map((r, k) => ({ r, a: indexAreas[k] })).filter((o) => o.a > 0).map((o) => ({ ring: o.r, size: Math.abs(signedArea(o.r)), holes: [] as Ring[] }));
+  // Rings that collapse to fewer than four distinct-consecutive positions are dropped.
+  const all: { r: Ring; a: number }[] = [];
+  for (let k = 0; k < lineCount(l); k++) {
+    const [b, e] = lineRange(l, k);
+    const r: Ring = [];
+    for (let q = b; q < e; q++) r.push([colToX(g, l.positions[2 * q]), rowToY(g, l.positions[2 * q + 1])]);
+    const c = dedupe(r);
+    if (c.length >= 4) all.push({ r: c, a: ringArea(l, k) });
+  }
+  const rings = all.map((q) => q.r);
+  const indexAreas = all.map((q) => q.a);
+  const outers = all.filter((o) => o.a > 0).map((o) => ({ ring: o.r, size: Math.abs(signedArea(o.r)), holes: [] as Ring[] }));
   outers.sort((a, b) => a.size - b.size);
   rings.forEach((r, k) => {
     if (indexAreas[k] >= 0) return;

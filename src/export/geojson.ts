@@ -64,6 +64,17 @@ export function boundariesGeoJson(r: PipelineResult, which: 'regional' | 'licenc
   };
 }
 
+/** One feature per continuous boundary line, with its evidence as shares of its length. */
+export function boundaryLinesGeoJson(r: PipelineResult, which: 'regional' | 'licence' = r.boundaries.linesInLicence ? 'licence' : 'regional'): FeatureCollection {
+  const lines = which === 'licence' && r.boundaries.linesInLicence ? r.boundaries.linesInLicence : r.boundaries.lines;
+  return {
+    type: 'FeatureCollection',
+    name: which === 'licence' ? `boundary lines inside ${r.licenceName}` : 'boundary lines (whole grid)',
+    note: 'One feature per continuous line; boundaries.geojson holds the same lines in pieces that each say what placed them.',
+    features: lines.map((p) => pieceToFeature(p, r)),
+  };
+}
+
 /** Domain polygons following cell edges (areas = cells × cell area), one feature per polygon. */
 export function domainsGeoJson(r: PipelineResult): FeatureCollection {
   const g = r.geometry;

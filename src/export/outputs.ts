@@ -11,7 +11,7 @@ import { transformer } from '../crs/transform.js';
 import { writeGeoTiff } from '../io/geotiff-write.js';
 import { DEFAULT_PARAMS, PARAM_SPECS } from '../params.js';
 import type { PipelineResult } from '../pipeline.js';
-import { boundariesGeoJson, domainsGeoJson, type FeatureCollection } from './geojson.js';
+import { boundariesGeoJson, boundaryLinesGeoJson, domainsGeoJson, type FeatureCollection } from './geojson.js';
 
 export interface RunInfo {
   readonly version: string;
@@ -209,10 +209,14 @@ export function outputFiles(r: PipelineResult, run: RunInfo): Record<string, Uin
   const made = provenance(r, run);
   const files: Record<string, Uint8Array> = {
     'boundaries.geojson': json({ ...bfc, generated_by: made }),
+    'boundary-lines.geojson': json({ ...boundaryLinesGeoJson(r), generated_by: made }),
     'domains.geojson': json({ ...domainsGeoJson(r), generated_by: made }),
     ...gridFiles(r, run),
   };
-  if (r.boundaries.inLicence) files['boundaries-whole-grid.geojson'] = json({ ...boundariesGeoJson(r, 'regional'), generated_by: made });
+  if (r.boundaries.inLicence) {
+    files['boundaries-whole-grid.geojson'] = json({ ...boundariesGeoJson(r, 'regional'), generated_by: made });
+    files['boundary-lines-whole-grid.geojson'] = json({ ...boundaryLinesGeoJson(r, 'regional'), generated_by: made });
+  }
   files['summary.json'] = json(summary(r, run, bfc));
   return files;
 }

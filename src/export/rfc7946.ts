@@ -13,6 +13,13 @@ export type Pos = [number, number];
 
 const round = (v: number) => Math.round(v * 1e7) / 1e7;
 
+/** Positions closer than the 1e-7° rounding become one: drop the repeats that rounding makes. */
+function noRepeats(path: Pos[]): Pos[] {
+  const out: Pos[] = [];
+  for (const p of path) if (!out.length || out[out.length - 1][0] !== p[0] || out[out.length - 1][1] !== p[1]) out.push(p);
+  return out;
+}
+
 /** Project a map-coordinate path to lon/lat, densified to maxStep map units. */
 export function toLonLat(path: Pos[], crs: Crs, maxStep: number): Pos[] {
   const t = transformer(crs, WGS84);
@@ -63,7 +70,7 @@ export function splitLine(pathIn: Pos[]): Pos[][] {
     cur.push([round(wrapLon(p[0])), round(p[1])]);
   }
   if (cur.length) parts.push(cur);
-  return parts.filter((l) => l.length >= 2);
+  return parts.map(noRepeats).filter((l) => l.length >= 2);
 }
 
 /** Signed area in lon/lat degrees² (positive = counter-clockwise). */
@@ -106,8 +113,9 @@ export function rfcPolygons(rings: Pos[][]): Pos[][][] {
   for (const r of unwrapped) for (const p of r) (lo = Math.min(lo, p[0])), (hi = Math.max(hi, p[0]));
   const finish = (rs: Pos[][]) =>
     rs
+      .map((r) => noRepeats(r.map(([x, y]) => [round(wrapLon(x)), round(y)] as Pos)))
       .filter((r) => r.length >= 4)
-      .map((r, k) => orient(r.map(([x, y]) => [round(wrapLon(x)), round(y)] as Pos), k === 0));
+      .map((r, k) => orient(r, k === 0));
   const crosses = Math.floor((lo + 180) / 360) !== Math.floor((hi + 180) / 360);
   if (!crosses) return [finish(unwrapped)];
   // The ring spans the line lon = edge (an odd multiple of 180°): clip each side, then bring each
@@ -118,6 +126,6 @@ export function rfcPolygons(rings: Pos[][]): Pos[][][] {
   const west = unwrapped.map((r) => clipHalf(r, edge, true).map(([x, y]) => [x + shiftWest, y] as Pos));
   const east = unwrapped.map((r) => clipHalf(r, edge, false).map(([x, y]) => [x + shiftEast, y] as Pos));
   const done = (rs: Pos[][]) =>
-    rs.filter((r) => r.length >= 4).map((r, k) => orient(r.map(([x, y]) => [round(x), round(y)] as Pos), k === 0));
+    rs.map((r) => noRepeats(r.map(([x, y]) => [round(x), round(y)] as Pos))).filter((r) => r.length >= 4).map((r, k) => orient(r, k === 0));
   return [done(west), done(east)].filter((poly) => poly.length > 0);
 }

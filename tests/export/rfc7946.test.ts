@@ -30,6 +30,24 @@ describe('RFC 7946 helpers', () => {
   });
 });
 
+/** Every line and ring: no repeated consecutive position; `closed` exactly when first = last. */
+function geometryFaults(fc: { features: { properties: Record<string, unknown>; geometry: { type: string; coordinates: unknown } }[] }): string[] {
+  const out: string[] = [];
+  const eq = (a: number[], b: number[]) => a[0] === b[0] && a[1] === b[1];
+  fc.features.forEach((f, i) => {
+    const parts = (f.geometry.type === 'LineString' ? [f.geometry.coordinates] : f.geometry.type === 'MultiLineString' || f.geometry.type === 'Polygon' ? f.geometry.coordinates : (f.geometry.coordinates as unknown[]).flat()) as number[][][];
+    for (const p of parts) {
+      for (let k = 1; k < p.length; k++) if (eq(p[k], p[k - 1])) out.push(`feature ${i}: repeated position ${p[k]}`);
+      if (p.length < 2) out.push(`feature ${i}: a part of ${p.length} position`);
+    }
+    if (f.geometry.type === 'LineString' && typeof f.properties.closed === 'boolean') {
+      const c = f.geometry.coordinates as number[][];
+      if (f.properties.closed !== eq(c[0], c[c.length - 1])) out.push(`feature ${i}: closed = ${f.properties.closed} but first ${eq(c[0], c[c.length - 1]) ? '=' : '≠'} last`);
+    }
+  });
+  return out;
+}
+
 describe('taperline demo outputs', () => {
   const out = mkdtempSync(join(tmpdir(), 'taperline-demo-'));
   afterAll(() => rmSync(out, { recursive: true, force: true }));
@@ -39,7 +57,7 @@ describe('taperline demo outputs', () => {
     expect(run.stderr).not.toMatch(/internal error/);
     expect(run.status).toBe(0);
     const names = readdirSync(out).sort();
-    expect(names).toEqual(['boundaries-whole-grid.geojson', 'boundaries.geojson', 'domains.geojson', 'grids', 'summary.json']);
+    expect(names).toEqual(['boundaries-whole-grid.geojson', 'boundaries.geojson', 'boundary-lines-whole-grid.geojson', 'boundary-lines.geojson', 'domains.geojson', 'grids', 'summary.json']);
     expect(readdirSync(join(out, 'grids'))).toContain('crustal-thickness.tif');
     const grids = readdirSync(join(out, 'grids'));
     const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
@@ -50,11 +68,27 @@ describe('taperline demo outputs', () => {
     expect(grids.filter((f) => f.endsWith('.aux.xml')).sort()).toEqual(['domains.tif.aux.xml', 'unbounded-beta.tif.aux.xml']);
   });
 
-  it('boundaries and domains follow RFC 7946', () => {
-    for (const f of ['boundaries.geojson', 'boundaries-whole-grid.geojson', 'domains.geojson']) {
+  it('every vector output follows RFC 7946, with no repeated positions and closed exactly when it closes', () => {
+    for (const f of readdirSync(out).filter((q) => q.endsWith('.geojson'))) {
       const fc = JSON.parse(readFileSync(join(out, f), 'utf8'));
       expect(fc.features.length).toBeGreaterThan(0);
       expect(rfc7946Violations(fc), f).toEqual([]);
+      expect(geometryFaults(fc), f).toEqual([]);
+    }
+  });
+
+  it('boundary-lines.geojson holds one feature per continuous line, with evidence as shares of its length', () => {
+    const lines = JSON.parse(readFileSync(join(out, 'boundary-lines-whole-grid.geojson'), 'utf8'));
+    const pieces = JSON.parse(readFileSync(join(out, 'boundaries-whole-grid.geojson'), 'utf8'));
+    const total = (fc: { features: { properties: { kind: string; length_km?: number } }[] }, kind: string) => fc.features.filter((f) => f.properties.kind === kind).reduce((a, f) => a + (f.properties.length_km ?? 0), 0);
+    for (const kind of ['crustal-taper-limit', 'oceanic-limit', 'necking-line', 'coupling-line']) {
+      expect(lines.features.filter((f: { properties: { kind: string } }) => f.properties.kind === kind).length).toBeLessThan(pieces.features.filter((f: { properties: { kind: string } }) => f.properties.kind === kind).length);
+      expect(total(lines, kind)).toBeCloseTo(total(pieces, kind), 0);
+    }
+    for (const f of lines.features) {
+      expect(f.properties.evidence_picks_fraction).toBeGreaterThanOrEqual(0);
+      expect(f.properties.evidence_picks_fraction).toBeLessThanOrEqual(1);
+      expect(['picks', 'mixed', 'proxy']).toContain(f.properties.evidence);
     }
   });
 
@@ -157,13 +191,17 @@ describe('taperline demo outputs', () => {
         expect(String(info.bands[0].noDataValue)).toBe('NaN');
       }
     }
-    for (const f of ['boundaries.geojson', 'domains.geojson']) {
+    for (const f of readdirSync(out).filter((q) => q.endsWith('.geojson'))) {
       const layer = JSON.parse(readFileSync(join(out, f), 'utf8')).name;
-      const text = execFileSync('ogrinfo', ['-q', '-dialect', 'SQLite', '-sql', `SELECT SUM(ST_IsValid(geometry)) AS valid, COUNT(*) AS n FROM "${layer}"`, join(out, f)], { encoding: 'utf8' });
+      // every geometry valid (GEOS, through GDAL's SQLite dialect), and every line simple
+      const sql = `SELECT SUM(ST_IsValid(geometry)) AS valid, SUM(CASE WHEN ST_GeometryType(geometry) LIKE '%LINESTRING%' THEN ST_IsSimple(geometry) ELSE 1 END) AS simple, COUNT(*) AS n FROM "${layer}"`;
+      const text = execFileSync('ogrinfo', ['-q', '-dialect', 'SQLite', '-sql', sql, join(out, f)], { encoding: 'utf8' });
       const valid = Number(/valid \(Integer\) = (\d+)/.exec(text)?.[1]);
+      const simple = Number(/simple \(Integer\) = (\d+)/.exec(text)?.[1]);
       const n = Number(/n \(Integer\) = (\d+)/.exec(text)?.[1]);
-      expect(n).toBeGreaterThan(0);
-      expect(valid).toBe(n);
+      expect(n, f).toBeGreaterThan(0);
+      expect(valid, f).toBe(n);
+      expect(simple, f).toBe(n);
       const so = execFileSync('ogrinfo', ['-so', '-al', join(out, f)], { encoding: 'utf8' });
       expect(so).toMatch(/WGS 84/);
       expect(so).toMatch(/Extent: \(-1[23]\d\.\d+, -3\d\.\d+\) - \(-12\d\.\d+, -3\d\.\d+\)/);
