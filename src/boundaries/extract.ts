@@ -475,8 +475,9 @@ function ageProperties(coords: Ring, g: GridGeometry, oldest: Isochron | null, a
       if (!Number.isNaN(b)) hi = Math.max(hi, b);
     }
     if (Number.isFinite(lo)) {
-      props.depth_age_range_ma = [Math.round(lo * 10) / 10, Number.isFinite(hi) ? Math.round(hi * 10) / 10 : null];
-      props.depth_age_note = 'indicative only: from water-loaded basement depth and two age–depth curves; wide';
+      props.depth_age_min_ma = Math.round(lo * 10) / 10;
+      props.depth_age_max_ma = Number.isFinite(hi) ? Math.round(hi * 10) / 10 : null;
+      props.depth_age_note = 'indicative only: from water-loaded basement depth and two age–depth curves over ± the depth uncertainty; never older than the rift';
       if (!oldest) props.age_evidence = 'depth (indicative)';
     }
   }

@@ -36,7 +36,19 @@ export function surveyGeoJson(sp: SurveyPlan, crs: Crs): Record<string, unknown>
   return {
     type: 'FeatureCollection',
     name: 'proposed seismic lines',
-    programme: { ...sp.programme, parameters: sp.params, dropped: sp.plan.dropped, gaps: sp.plan.gaps.map((g) => ({ ...g, at: undefined })) },
+    programme: {
+      lines: sp.programme.lines,
+      line_km: r3(sp.programme.lineKm),
+      productive_hours: r3(sp.programme.productiveHours),
+      total_days: r3(sp.programme.totalDays),
+      cost: sp.programme.cost,
+      parameters: sp.params,
+      dropped: sp.plan.dropped,
+      gaps: sp.plan.gaps.map((g) => {
+        const [lon, lat] = transformer(crs, WGS84).forward(g.at);
+        return { rank: g.rank, start_km: r3(g.startKm), end_km: r3(g.endKm), length_km: r3(g.lengthKm), max_distance_km: r3(g.maxDistanceKm), midline_piece: g.piece, lon: Math.round(lon * 1e7) / 1e7, lat: Math.round(lat * 1e7) / 1e7 };
+      }),
+    },
     features,
   };
 }
@@ -44,10 +56,9 @@ export function surveyGeoJson(sp: SurveyPlan, crs: Crs): Record<string, unknown>
 export function surveyCsv(sp: SurveyPlan, crs: Crs): string {
   const t = transformer(crs, WGS84);
   const crsName = crs.id === 'PROJ4' ? crs.proj4 : `${crs.id} ${crs.name}`;
-  const rows = [
-    `# proposed seismic lines (planning aid). Start/end in WGS 84 (degrees) and in the analysis CRS: ${crsName} (metres). Lengths geodesic.`,
-    'id,kind,rank,start_lon,start_lat,end_lon,end_lat,start_x,start_y,end_x,end_y,length_km,cumulative_km,record_length_s,crossings',
-  ];
+  // header first (docs/outputs.md); start/end in WGS 84 degrees and in the analysis CRS (metres), named
+  // on every row; lengths geodesic; a planning aid
+  const rows = ['id,kind,rank,start_lon,start_lat,end_lon,end_lat,start_x,start_y,end_x,end_y,length_km,cumulative_km,record_length_s,crossings,analysis_crs'];
   for (const l of sp.plan.lines) {
     const a = l.coords[0];
     const b = l.coords[l.coords.length - 1];
@@ -55,7 +66,7 @@ export function surveyCsv(sp: SurveyPlan, crs: Crs): string {
     const [blon, blat] = t.forward(b);
     const f = sp.figures.get(l.id);
     const cross = f ? f.crossings.map((c) => `${c.kind}@${c.chainageKm.toFixed(2)}km`).join(' ') : '';
-    rows.push([l.id, l.kind, l.rank, alon.toFixed(7), alat.toFixed(7), blon.toFixed(7), blat.toFixed(7), a[0].toFixed(2), a[1].toFixed(2), b[0].toFixed(2), b[1].toFixed(2), l.lengthKm.toFixed(3), l.cumulativeKm.toFixed(3), f ? f.recordLengthS : '', `"${cross}"`].join(','));
+    rows.push([l.id, l.kind, l.rank, alon.toFixed(7), alat.toFixed(7), blon.toFixed(7), blat.toFixed(7), a[0].toFixed(2), a[1].toFixed(2), b[0].toFixed(2), b[1].toFixed(2), l.lengthKm.toFixed(3), l.cumulativeKm.toFixed(3), f ? f.recordLengthS : '', `"${cross}"`, `"${crsName.replace(/"/g, "'")}"`].join(','));
   }
   return rows.join('\n') + '\n';
 }

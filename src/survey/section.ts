@@ -107,16 +107,16 @@ export function sampleSection(g: SectionGrids, path: Ring, lines: Record<string,
   return s;
 }
 
-/** Section as CSV: one row per sample, named columns with units, CRS stated in a comment line. */
+/** Section as CSV: one row per sample, named columns with units, header first. */
 export function sectionCsv(s: Section, crsName: string): string {
   const f = (v: number, d = 1) => (Number.isFinite(v) ? v.toFixed(d) : '');
-  const rows = [
-    `# section sampled every ${s.stepM.toFixed(1)} m; x, y in ${crsName}; lon, lat WGS 84; depths m positive down; chainage geodesic (WGS 84)`,
-    'chainage_km,x_m,y_m,lon_deg,lat_deg,seabed_m,top_basement_m,moho_m,crustal_thickness_m,domain',
-  ];
+  // header first (docs/outputs.md): x, y in the analysis CRS (named on every row), lon, lat WGS 84,
+  // depths m positive down, chainage geodesic; `crossing` names the lines crossed since the last sample
+  const rows = ['chainage_km,x_m,y_m,lon_deg,lat_deg,seabed_m,top_basement_m,moho_m,crustal_thickness_m,domain,crossing,analysis_crs'];
+  const crs = `"${crsName.replace(/"/g, "'")}"`;
   for (let k = 0; k < s.x.length; k++) {
-    rows.push([s.chainageKm[k].toFixed(4), s.x[k].toFixed(2), s.y[k].toFixed(2), s.lon[k].toFixed(7), s.lat[k].toFixed(7), f(s.seabed[k]), f(s.basement[k]), f(s.moho[k]), f(s.thickness[k]), s.domain[k]].join(','));
+    const crossed = s.crossings.filter((c) => c.chainageKm <= s.chainageKm[k] && (k === 0 || c.chainageKm > s.chainageKm[k - 1])).map((c) => c.kind);
+    rows.push([s.chainageKm[k].toFixed(4), s.x[k].toFixed(2), s.y[k].toFixed(2), s.lon[k].toFixed(7), s.lat[k].toFixed(7), f(s.seabed[k]), f(s.basement[k]), f(s.moho[k]), f(s.thickness[k]), s.domain[k], crossed.join(' '), crs].join(','));
   }
-  for (const c of s.crossings) rows.push(`# crosses ${c.kind} at ${c.chainageKm.toFixed(3)} km`);
   return rows.join('\n') + '\n';
 }

@@ -284,7 +284,7 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     expect(await svg.locator('[data-ve="1"]').textContent()).toMatch(/true scale/);
     const [csv] = await Promise.all([p.page.waitForEvent('download'), p.page.click('#section-csv')]);
     const text = readFileSync((await csv.path())!, 'utf8');
-    expect(text.split('\n')[1]).toBe('chainage_km,x_m,y_m,lon_deg,lat_deg,seabed_m,top_basement_m,moho_m,crustal_thickness_m,domain');
+    expect(text.split('\n')[0]).toBe('chainage_km,x_m,y_m,lon_deg,lat_deg,seabed_m,top_basement_m,moho_m,crustal_thickness_m,domain,crossing,analysis_crs');
     await p.page.selectOption('#section-ve', '5');
     expect(await svg.locator('[data-ve="5"]').count()).toBe(1);
   });

@@ -116,8 +116,8 @@ describe('taperline plan', () => {
     expect(r.status).toBe(0);
     expect(readdirSync(out).sort()).toEqual(['survey-lines.csv', 'survey-lines.geojson']);
     const csv = readFileSync(join(out, 'survey-lines.csv'), 'utf8').split('\n');
-    expect(csv[0]).toMatch(/WGS 84.*EPSG:32709/);
-    expect(csv[1]).toBe('id,kind,rank,start_lon,start_lat,end_lon,end_lat,start_x,start_y,end_x,end_y,length_km,cumulative_km,record_length_s,crossings');
+    expect(csv[0]).toBe('id,kind,rank,start_lon,start_lat,end_lon,end_lat,start_x,start_y,end_x,end_y,length_km,cumulative_km,record_length_s,crossings,analysis_crs');
+    expect(csv[1]).toMatch(/"EPSG:32709 WGS 84 \/ UTM zone 9S"$/);
     const fc = JSON.parse(readFileSync(join(out, 'survey-lines.geojson'), 'utf8'));
     const { rfc7946Violations } = await import('../helpers/rfc7946.js');
     expect(rfc7946Violations(fc)).toEqual([]);
