@@ -617,12 +617,18 @@ function exportPanel(): HTMLElement {
   const get = async (path: string, type: string) => {
     setStatus('Preparing export…');
     const files = await engine.exportAll(VERSION);
+    if (!files[path]) {
+      setStatus(`${path} is not written for this run: the grid holds no value anywhere (see the summary's grids_not_written)`, true);
+      return;
+    }
     download(path.split('/').pop()!, files[path], type);
     setStatus(`Exported ${path}`);
   };
   return h('div', { class: 'export' },
     h('button', { id: 'export-boundaries', onclick: () => get('boundaries.geojson', 'application/geo+json') }, 'boundaries.geojson'),
+    h('button', { id: 'export-lines', onclick: () => get('boundary-lines.geojson', 'application/geo+json') }, 'boundary-lines.geojson'),
     h('button', { id: 'export-domains', onclick: () => get('domains.geojson', 'application/geo+json') }, 'domains.geojson'),
+    h('button', { id: 'export-gpkg', onclick: () => get('boundaries.gpkg', 'application/geopackage+sqlite3') }, 'GeoPackage (all layers, WGS 84 and analysis CRS)'),
     h('button', { id: 'export-summary', onclick: () => get('summary.json', 'application/json') }, 'summary.json'),
     h('div', { class: 'row' }, gridSelect, h('button', { id: 'export-grid-btn', onclick: () => get(`grids/${gridSelect.value}.tif`, 'image/tiff') }, 'GeoTIFF')),
     h('button', { id: 'export-png', onclick: () => exportImage() }, 'Map image (PNG)'),

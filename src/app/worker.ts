@@ -7,6 +7,7 @@
 import { demoFiles } from '../../fixtures/demo-files.js';
 import { boundariesGeoJson, domainsGeoJson } from '../export/geojson.js';
 import { exportValues, outputFiles, summary as runSummary } from '../export/outputs.js';
+import { geoPackage } from '../export/gpkg.js';
 import { readGeoJson } from '../io/geojson-read.js';
 import { readGeoTiff } from '../io/geotiff-read.js';
 import { readXyz } from '../io/xyz-read.js';
@@ -208,6 +209,9 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
       case 'export': {
         if (!last) throw new Error('nothing computed yet');
         const files = outputFiles(last, { version: m.version, time: m.time, tool: 'app' });
+        // the GeoPackage: SQLite in WebAssembly, loaded only when exporting (bundled, never fetched elsewhere)
+        const [{ default: initSqlJs }, { default: wasmUrl }] = await Promise.all([import('sql.js/dist/sql-wasm-browser.js'), import('sql.js/dist/sql-wasm-browser.wasm?url')]);
+        files['boundaries.gpkg'] = geoPackage(await initSqlJs({ locateFile: () => wasmUrl }), last, m.time).bytes;
         const out: Record<string, ArrayBuffer> = {};
         for (const [k, v] of Object.entries(files)) out[k] = v.slice().buffer as ArrayBuffer;
         post({ type: 'exported', requestId: m.requestId, files: out }, Object.values(out));

@@ -6,6 +6,7 @@ import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { InputError } from '../io/errors.js';
 import { outputFiles } from '../export/outputs.js';
+import { geoPackage } from '../export/gpkg.js';
 import { ParamError, PARAM_SPECS, DEFAULT_PARAMS } from '../params.js';
 import { runPipeline, type PipelineInputs } from '../pipeline.js';
 import type { GridReadOptions } from '../io/geotiff-read.js';
@@ -87,10 +88,13 @@ summary.json (lines_placed_by) and every line's placed_by property say which app
 disagree with their neighbours or lie far from the uncalibrated line are listed as suspect.
 
 Writes DIR/boundaries.geojson (inside the licence when one is given; then also
-boundaries-whole-grid.geojson), DIR/domains.geojson, DIR/grids/<name>.tif (one Float32 GeoTIFF per
-derived grid, metres unless stated, each no data outside the domains where its model applies;
-domains.tif and unbounded-beta.tif as UInt8) and DIR/summary.json (parameters, inputs with sha256,
-detections, the rule of every grid, flagged cells, areas, lengths, suspect picks, warnings). Files appear only when the run
+boundaries-whole-grid.geojson), DIR/boundary-lines.geojson (one feature per continuous line; likewise),
+DIR/domains.geojson, DIR/boundaries.gpkg (every vector layer in WGS 84 and in the analysis CRS),
+DIR/grids/<name>.tif (one cloud-optimized Float32 GeoTIFF per derived grid, metres unless stated,
+each no data outside the domains where its model applies; domains.tif and unbounded-beta.tif as
+UInt8 with colour tables) and DIR/summary.json (parameters, inputs with sha256, detections, the rule
+of every grid, flagged cells, areas, lengths, suspect picks, warnings); a grid with no value anywhere
+is not written (listed in the summary). Every field: docs/outputs.md. Files appear only when the run
 succeeds. Exit status: 0 success; 2 bad input (message names the file and the problem); 1 otherwise.
 
 Params file keys (JSON object; every key optional):
@@ -223,7 +227,14 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
         'survey-lines.csv': enc.encode(surveyCsv(sp, result.geometry.crs)),
       };
       for (const w of sp.plan.warnings) process.stderr.write(`warning: ${w}\n`);
-    } else files = outputFiles(result, { version: pkg.version, time: new Date().toISOString(), tool: 'cli' });
+    } else {
+      const run = { version: pkg.version, time: new Date().toISOString(), tool: 'cli' as const };
+      files = outputFiles(result, run);
+      const { default: initSqlJs } = await import('sql.js');
+      const gpkg = geoPackage(await initSqlJs(), result, run.time);
+      files['boundaries.gpkg'] = gpkg.bytes;
+      if (gpkg.note) process.stderr.write(`note: ${gpkg.note}\n`);
+    }
   } catch (err) {
     if (err instanceof ParamError || (err instanceof Error && /^plan parameter/.test(err.message))) throw new InputError(paramsPath ?? 'parameters', err.message);
     throw err;

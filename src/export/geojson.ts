@@ -76,7 +76,12 @@ export function boundaryLinesGeoJson(r: PipelineResult, which: 'regional' | 'lic
 }
 
 /** Domain polygons following cell edges (areas = cells × cell area), one feature per polygon. */
+/** Domain polygons with their rings in the analysis CRS too (for projected layers). */
 export function domainsGeoJson(r: PipelineResult): FeatureCollection {
+  return domainFeatures(r).collection;
+}
+
+export function domainFeatures(r: PipelineResult): { collection: FeatureCollection; mapRings: Pos[][][] } {
   const g = r.geometry;
   const { domains, flags } = r.classified;
   const keys = new Uint8Array(domains.length);
@@ -87,7 +92,9 @@ export function domainsGeoJson(r: PipelineResult): FeatureCollection {
   const polys = polygonize(keys, g.nx, g.ny, (key) => (key & 7) === 0);
   const toMap = (ring: [number, number][]): Pos[] => ring.map(([i, j]) => [colToX(g, i), rowToY(g, j)]);
   const features: Feature[] = [];
+  const mapRings: Pos[][][] = [];
   for (const p of polys) {
+    mapRings.push([p.outer, ...p.holes].map(toMap));
     const rings = [p.outer, ...p.holes].map((ring) => toLonLat(toMap(ring), g.crs, Math.abs(g.dx)));
     const parts = rfcPolygons(rings);
     const code = p.key & 7;
@@ -106,9 +113,12 @@ export function domainsGeoJson(r: PipelineResult): FeatureCollection {
     });
   }
   return {
-    type: 'FeatureCollection',
-    name: 'margin domains',
-    note: 'Interpretations: thickness proxy and evidence as stated in summary.json. Polygons follow grid cells.',
-    features,
+    collection: {
+      type: 'FeatureCollection',
+      name: 'margin domains',
+      note: 'Interpretations: thickness proxy and evidence as stated in summary.json. Polygons follow grid cells.',
+      features,
+    },
+    mapRings,
   };
 }

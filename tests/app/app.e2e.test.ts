@@ -1,5 +1,8 @@
 // The app where users meet it: headless Chromium (Debian's) on the built app, served on loopback.
-import { readFileSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
+import { copyFileSync, mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { WGS84 } from '../../src/crs/registry.js';
 import { crsFromEpsg } from '../../src/crs/registry.js';
@@ -7,7 +10,7 @@ import { transformer } from '../../src/crs/transform.js';
 import { DOMAIN_STYLES } from '../../src/app/colour.js';
 import { countColour, openPage, pixelAt, pixels, startApp, waitReady, type App, type OpenedPage } from '../helpers/app.js';
 import { rfc7946Violations } from '../helpers/rfc7946.js';
-import { toolOrSkip } from '../helpers/tools.js';
+import { GDAL_PYTHON, GDAL_SAMPLES, toolOrSkip } from '../helpers/tools.js';
 
 const haveChromium = toolOrSkip('chromium');
 const TAPER: [number, number, number] = [0xd5, 0x5e, 0x00]; // Okabe–Ito vermillion
@@ -152,6 +155,20 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     expect(fc.features.length).toBeGreaterThan(5);
     expect(rfc7946Violations(fc)).toEqual([]);
     expect(fc.features.some((f: { properties: { kind: string } }) => f.properties.kind === 'crustal-taper-limit')).toBe(true);
+  });
+
+  it('exports a GeoPackage that GDAL validates, with every layer in WGS 84 and the analysis CRS', async () => {
+    const [download] = await Promise.all([p.page.waitForEvent('download'), p.page.click('#export-gpkg')]);
+    expect(download.suggestedFilename()).toBe('boundaries.gpkg');
+    const path = join(mkdtempSync(join(tmpdir(), 'taperline-gpkg-')), 'boundaries.gpkg'); // the validator wants the extension
+    copyFileSync((await download.path())!, path);
+    expect(readFileSync(path).subarray(0, 15).toString('latin1')).toBe('SQLite format 3');
+    if (toolOrSkip('gdal-python')) {
+      expect(execFileSync(GDAL_PYTHON, [`${GDAL_SAMPLES}/validate_gpkg.py`, path], { encoding: 'utf8' }).trim()).toBe('');
+      const layers = execFileSync('ogrinfo', ['-q', path], { encoding: 'utf8' });
+      expect(layers).toMatch(/domains_wgs84/);
+      expect(layers).toMatch(/boundary_lines_epsg32709/);
+    }
   });
 
   it('exports a map image with legend and scale', async () => {

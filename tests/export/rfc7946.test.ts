@@ -57,7 +57,7 @@ describe('taperline demo outputs', () => {
     expect(run.stderr).not.toMatch(/internal error/);
     expect(run.status).toBe(0);
     const names = readdirSync(out).sort();
-    expect(names).toEqual(['boundaries-whole-grid.geojson', 'boundaries.geojson', 'boundary-lines-whole-grid.geojson', 'boundary-lines.geojson', 'domains.geojson', 'grids', 'summary.json']);
+    expect(names).toEqual(['boundaries-whole-grid.geojson', 'boundaries.geojson', 'boundaries.gpkg', 'boundary-lines-whole-grid.geojson', 'boundary-lines.geojson', 'domains.geojson', 'grids', 'summary.json']);
     expect(readdirSync(join(out, 'grids'))).toContain('crustal-thickness.tif');
     const grids = readdirSync(join(out, 'grids'));
     const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
@@ -152,6 +152,33 @@ describe('taperline demo outputs', () => {
       .reduce((a: number, f: { properties: { area_km2: number } }) => a + f.properties.area_km2, 0);
     expect(gdalKm2).toBeGreaterThan(1000);
     expect(Math.abs(ours - gdalKm2) / gdalKm2).toBeLessThan(1e-4); // clipping in UTM vs lon/lat: the licence edges are densified every 1 km
+  });
+
+  it.skipIf(!gdalPython)("the GeoPackage passes GDAL's validate_gpkg.py; every layer in WGS 84 and in the analysis CRS, valid and simple, as the GeoJSON", () => {
+    const gpkg = join(out, 'boundaries.gpkg');
+    const v = execFileSync(GDAL_PYTHON, [`${GDAL_SAMPLES}/validate_gpkg.py`, gpkg], { encoding: 'utf8' });
+    expect(v.trim()).toBe(''); // silent when valid
+    const layers = execFileSync('ogrinfo', ['-q', gpkg], { encoding: 'utf8' }).trim().split('\n').map((l) => /^\d+: (\S+)/.exec(l)![1]);
+    const bases = ['boundary_pieces', 'cot_zone', 'boundary_lines', 'boundary_pieces_whole_grid', 'cot_zone_whole_grid', 'boundary_lines_whole_grid', 'domains'];
+    expect(layers.sort()).toEqual(bases.flatMap((b) => [`${b}_wgs84`, `${b}_epsg32709`]).sort());
+    const count = (file: string, pred: (f: { properties: { kind?: string } }) => boolean) => JSON.parse(readFileSync(join(out, file), 'utf8')).features.filter(pred).length;
+    const want: Record<string, number> = {
+      boundary_pieces: count('boundaries.geojson', (f) => f.properties.kind !== 'cot-zone'),
+      cot_zone: count('boundaries.geojson', (f) => f.properties.kind === 'cot-zone'),
+      boundary_lines: count('boundary-lines.geojson', () => true),
+      domains: count('domains.geojson', () => true),
+    };
+    for (const layer of layers) {
+      const sql = `SELECT COUNT(*) AS n, SUM(ST_IsValid(geom)) AS valid, SUM(CASE WHEN ST_GeometryType(geom) LIKE '%LINESTRING%' THEN ST_IsSimple(geom) ELSE 1 END) AS simple FROM "${layer}"`;
+      const text = execFileSync('ogrinfo', ['-q', '-sql', sql, gpkg], { encoding: 'utf8' });
+      const n = Number(/n \(Integer\) = (\d+)/.exec(text)?.[1]);
+      expect(Number(/valid \(Integer\) = (\d+)/.exec(text)?.[1]), layer).toBe(n);
+      expect(Number(/simple \(Integer\) = (\d+)/.exec(text)?.[1]), layer).toBe(n);
+      const base = layer.replace(/_(wgs84|epsg32709)$/, '');
+      if (want[base] !== undefined) expect(n, layer).toBe(want[base]);
+      const so = execFileSync('ogrinfo', ['-so', gpkg, layer], { encoding: 'utf8' });
+      expect(so, layer).toMatch(layer.endsWith('wgs84') ? /ID\["EPSG",4326\]\]\s*$/m : /UTM zone 9S/);
+    }
   });
 
   it.skipIf(!gdalPython)("every grid passes GDAL's validate_cloud_optimized_geotiff.py and has finite statistics", () => {
