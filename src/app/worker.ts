@@ -114,7 +114,7 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
             grids: gridsOut,
             domains,
             boundaries: regional,
-            domainOutlines: m.outlines ? domainsGeoJson(r) : null,
+            domainOutlines: m.outlines ? domainsGeoJson(r, 'regional') : null,
             picks: picksGeoJson(r),
             summary: {
               areas: r.areas.total,

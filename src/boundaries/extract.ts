@@ -19,9 +19,8 @@ import type { Oceanward } from '../domains/direction.js';
 import type { Params } from '../params.js';
 import { sideField } from './fields.js';
 import { offsetAt, onlapLines, onlapOffset, strikeOf, type OnlapPoint } from './onlap.js';
-import { featureCollection, intersect, polygon as turfPolygon } from '@turf/turf';
 import { simplifyShared } from './simplify.js';
-import { clipLineToPolygon, distanceToControl, insideRings, signedArea, type Ring } from './planar.js';
+import { clipLineToPolygon, clipPolygons, distanceToControl, insideRings, signedArea, type Ring } from './planar.js';
 
 export type BoundaryKind = 'crustal-taper-limit' | 'cot-zone' | 'oceanic-limit' | 'oldest-onlapped-crust' | 'necking-line' | 'coupling-line';
 export type LineKind = Exclude<BoundaryKind, 'cot-zone'>;
@@ -374,23 +373,6 @@ function offsetRange(coords: Ring, points: OnlapPoint[], o: Oceanward): [number,
     hi = Math.max(hi, d);
   }
   return [round3(lo / 1000), round3(hi / 1000)];
-}
-
-/** Polygons (outer + holes) intersected with the licence rings (each ring one licence polygon). */
-function clipPolygons(polys: Ring[][], licence: Ring[]): Ring[][] {
-  const close = (r: Ring): Ring => (r[0][0] === r[r.length - 1][0] && r[0][1] === r[r.length - 1][1] ? r : [...r, r[0]]);
-  const lic = licence.filter((r) => r.length >= 3).map((r) => turfPolygon([close(r)]));
-  const out: Ring[][] = [];
-  for (const rings of polys) {
-    const zone = turfPolygon(rings.map(close));
-    for (const l of lic) {
-      const hit = intersect(featureCollection([zone, l]));
-      if (!hit) continue;
-      const parts = hit.geometry.type === 'Polygon' ? [hit.geometry.coordinates] : hit.geometry.coordinates;
-      for (const p of parts) out.push(p.map((r) => r.map(([x, y]) => [x, y] as [number, number])));
-    }
-  }
-  return out;
 }
 
 /** Share (by length) of a polygon's border within `reach` of a pick. */

@@ -1,4 +1,6 @@
-/** Planar geometry in the analysis CRS: point in polygon, clipping lines to polygons, distances. */
+/** Planar geometry in the analysis CRS: point in polygon, clipping lines and polygons to polygons, distances. */
+
+import { featureCollection, intersect, polygon as turfPolygon } from '@turf/turf';
 
 export type Ring = [number, number][];
 
@@ -141,3 +143,21 @@ export function rayHits(origin: [number, number], dir: [number, number], reach: 
   }
   return ts.sort((p, q) => p - q);
 }
+
+/** Polygons (outer + holes) intersected with the licence rings (each ring one licence polygon). */
+export function clipPolygons(polys: Ring[][], licence: Ring[]): Ring[][] {
+  const close = (r: Ring): Ring => (r[0][0] === r[r.length - 1][0] && r[0][1] === r[r.length - 1][1] ? r : [...r, r[0]]);
+  const lic = licence.filter((r) => r.length >= 3).map((r) => turfPolygon([close(r)]));
+  const out: Ring[][] = [];
+  for (const rings of polys) {
+    const zone = turfPolygon(rings.map(close));
+    for (const l of lic) {
+      const hit = intersect(featureCollection([zone, l]));
+      if (!hit) continue;
+      const parts = hit.geometry.type === 'Polygon' ? [hit.geometry.coordinates] : hit.geometry.coordinates;
+      for (const p of parts) out.push(p.map((r) => r.map(([x, y]) => [x, y] as [number, number])));
+    }
+  }
+  return out;
+}
+

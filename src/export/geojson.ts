@@ -7,6 +7,7 @@ import { polygonize } from '../domains/polygonize.js';
 import type { BoundaryPiece } from '../boundaries/extract.js';
 import type { PipelineResult } from '../pipeline.js';
 import { rfcPolygons, splitLine, toLonLat, type Pos } from './rfc7946.js';
+import { clipPolygons } from '../boundaries/planar.js';
 
 export interface Feature {
   type: 'Feature';
@@ -76,12 +77,36 @@ export function boundaryLinesGeoJson(r: PipelineResult, which: 'regional' | 'lic
 }
 
 /** Domain polygons following cell edges (areas = cells × cell area), one feature per polygon. */
-/** Domain polygons with their rings in the analysis CRS too (for projected layers). */
-export function domainsGeoJson(r: PipelineResult): FeatureCollection {
-  return domainFeatures(r).collection;
+/** Domain polygons: inside the licence (clipped exactly) when one is given, else the whole grid. */
+export function domainsGeoJson(r: PipelineResult, which: 'regional' | 'licence' = r.evidence.licence ? 'licence' : 'regional'): FeatureCollection {
+  return domainFeatures(r, which).collection;
 }
 
-export function domainFeatures(r: PipelineResult): { collection: FeatureCollection; mapRings: Pos[][][] } {
+/** Domain polygons with their rings in the analysis CRS too (for projected layers). */
+export function domainFeatures(r: PipelineResult, which: 'regional' | 'licence' = 'regional'): { collection: FeatureCollection; mapRings: Pos[][][] } {
+  const whole = wholeDomains(r);
+  const licence = r.evidence.licence;
+  if (which === 'regional' || !licence) return whole;
+  // exact intersection with the licence in the analysis CRS, then geodesic areas
+  const g = r.geometry;
+  const features: Feature[] = [];
+  const mapRings: Pos[][][] = [];
+  whole.mapRings.forEach((rings, k) => {
+    for (const part of clipPolygons([rings as [number, number][][]], licence)) {
+      const parts = rfcPolygons(part.map((ring) => toLonLat(ring, g.crs, Math.abs(g.dx))));
+      if (!parts.length) continue;
+      mapRings.push(part);
+      features.push({
+        type: 'Feature',
+        properties: { ...whole.collection.features[k].properties, cells: null, area_km2: r3(polygonArea(parts) / 1e6), clipped_to_licence: true },
+        geometry: parts.length === 1 ? { type: 'Polygon', coordinates: parts[0] } : { type: 'MultiPolygon', coordinates: parts },
+      });
+    }
+  });
+  return { collection: { ...whole.collection, name: `margin domains inside ${r.licenceName}`, features }, mapRings };
+}
+
+function wholeDomains(r: PipelineResult): { collection: FeatureCollection; mapRings: Pos[][][] } {
   const g = r.geometry;
   const { domains, flags } = r.classified;
   const keys = new Uint8Array(domains.length);

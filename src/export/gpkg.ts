@@ -55,17 +55,22 @@ export function geoPackage(SQL: SqlJsStatic, r: PipelineResult, time: string): {
     add('cot_zone_whole_grid', 'continent–ocean transition zone, whole grid', b.pieces, true);
     add('boundary_lines_whole_grid', 'boundary lines, whole grid', b.lines, false);
   }
-  const dom = domainFeatures(r);
-  layers.push({ name: 'domains_wgs84', description: 'margin domains (WGS 84)', srs: WGS84_SRS, geometryType: 'MULTIPOLYGON', features: dom.collection.features.map(asFeature) });
-  if (analysis) {
+  const addDomains = (base: string, description: string, which: 'regional' | 'licence') => {
+    const dom = domainFeatures(r, which);
+    layers.push({ name: `${base}_wgs84`, description: `${description} (WGS 84)`, srs: WGS84_SRS, geometryType: 'MULTIPOLYGON', features: dom.collection.features.map(asFeature) });
+    if (!analysis) return;
     layers.push({
-      name: `domains_${suffix}`,
-      description: `margin domains (${analysis.name})`,
+      name: `${base}_${suffix}`,
+      description: `${description} (${analysis.name})`,
       srs: analysis,
       geometryType: 'MULTIPOLYGON',
       features: dom.mapRings.map((rings, k) => ({ geometry: { type: 'MultiPolygon', coordinates: [orientRings(rings)] }, properties: dom.collection.features[k].properties })),
     });
-  }
+  };
+  if (licence) {
+    addDomains('domains', `margin domains inside ${r.licenceName}`, 'licence');
+    addDomains('domains_whole_grid', 'margin domains, whole grid', 'regional');
+  } else addDomains('domains', 'margin domains', 'regional');
   const note = analysis ? null : `the analysis CRS (${r.geometry.crs.name}) has no WKT here: the GeoPackage holds WGS 84 layers only`;
   return { bytes: writeGeoPackage(SQL, layers, time), note };
 }

@@ -122,8 +122,17 @@ export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCol
     if (typeof f.properties.length_km === 'number') lengths[k] = Math.round(((lengths[k] ?? 0) + f.properties.length_km) * 1000) / 1000;
   }
   const cot = bfc.features.filter((f) => f.properties.kind === 'cot-zone').reduce((s, f) => s + Number(f.properties.area_km2), 0);
-  const area = (list: { code: number; cells: number; km2: number }[] | null) =>
-    list ? Object.fromEntries(list.map((a) => [DOMAIN_NAMES[a.code], { code: a.code, cells: a.cells, km2: Math.round(a.km2 * 1000) / 1000 }])) : null;
+  const area = (list: { code: number; cells: number; km2: number }[] | null, exact?: Map<number, number>) =>
+    list ? Object.fromEntries(list.map((a) => [DOMAIN_NAMES[a.code], { code: a.code, cells: a.cells, km2: Math.round((exact && a.code > 0 ? exact.get(a.code) ?? 0 : a.km2) * 1000) / 1000 }])) : null;
+  // inside the licence: the geodesic areas of the domain polygons clipped exactly to it (cells: by centre)
+  let exactInLicence: Map<number, number> | undefined;
+  if (r.evidence.licence) {
+    exactInLicence = new Map();
+    for (const f of domainsGeoJson(r, 'licence').features) {
+      const c = Number(f.properties.code);
+      exactInLicence.set(c, (exactInLicence.get(c) ?? 0) + Number(f.properties.area_km2));
+    }
+  }
   return {
     tool: `taperline ${run.version} (${run.tool})`,
     time: run.time,
@@ -176,7 +185,7 @@ export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCol
       rule: `isolated continental components at least max(minBlockArea = ${r.params.minBlockArea} km², minBlockCells = ${r.params.minBlockCells} cells)`,
       blocks: r.classified.blocks.map((b) => ({ cells: b.cells, area_km2: Math.round(b.areaKm2 * 1000) / 1000, ...lonLat(r, b.x, b.y) })),
     },
-    areas_km2: { whole_grid: area(r.areas.total), inside_licence: area(r.areas.inLicence), licence: r.licenceName },
+    areas_km2: { whole_grid: area(r.areas.total), inside_licence: area(r.areas.inLicence, exactInLicence), licence: r.licenceName, inside_licence_rule: r.evidence.licence ? 'km2: geodesic area of the domain polygons clipped exactly to the licence (no data: cells whose centre lies inside); cells: cells whose centre lies inside' : null },
     cot_zone_area_km2: Math.round(cot * 1000) / 1000,
     boundary_lengths_km: lengths,
     boundaries_missing: r.boundaries.missing,
@@ -211,6 +220,7 @@ export function outputFiles(r: PipelineResult, run: RunInfo): Record<string, Uin
     'boundaries.geojson': json({ ...bfc, generated_by: made }),
     'boundary-lines.geojson': json({ ...boundaryLinesGeoJson(r), generated_by: made }),
     'domains.geojson': json({ ...domainsGeoJson(r), generated_by: made }),
+    ...(r.evidence.licence ? { 'domains-whole-grid.geojson': json({ ...domainsGeoJson(r, 'regional'), generated_by: made }) } : {}),
     ...gridFiles(r, run),
   };
   if (r.boundaries.inLicence) {

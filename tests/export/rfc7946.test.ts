@@ -57,7 +57,7 @@ describe('taperline demo outputs', () => {
     expect(run.stderr).not.toMatch(/internal error/);
     expect(run.status).toBe(0);
     const names = readdirSync(out).sort();
-    expect(names).toEqual(['boundaries-whole-grid.geojson', 'boundaries.geojson', 'boundaries.gpkg', 'boundary-lines-whole-grid.geojson', 'boundary-lines.geojson', 'domains.geojson', 'grids', 'summary.json']);
+    expect(names).toEqual(['boundaries-whole-grid.geojson', 'boundaries.geojson', 'boundaries.gpkg', 'boundary-lines-whole-grid.geojson', 'boundary-lines.geojson', 'domains-whole-grid.geojson', 'domains.geojson', 'grids', 'summary.json']);
     expect(readdirSync(join(out, 'grids'))).toContain('crustal-thickness.tif');
     const grids = readdirSync(join(out, 'grids'));
     const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
@@ -124,6 +124,11 @@ describe('taperline demo outputs', () => {
     expect(s.areas_km2.inside_licence).not.toBeNull();
     expect(s.time).toMatch(/^\d{4}-\d\d-\d\dT/);
     expect(s.caution).toMatch(/interpretations/i);
+    // inside the licence: exact clipped areas; they add up to the licence's geodesic area (it lies in the grid)
+    // (no-data cells make no polygon: their area comes from the cells whose centre lies inside)
+    const inside = Object.values(s.areas_km2.inside_licence as Record<string, { code: number; km2: number }>).reduce((a, b) => a + b.km2, 0);
+    const licence = JSON.parse(new TextDecoder().decode(demoFiles()['licence.geojson'])).features[0].geometry.coordinates[0];
+    expect(Math.abs(inside - geodesicRingArea(licence.flat()) / 1e6)).toBeLessThan(1); // km²; the licence lies inside the grid
     // domain areas in the licence add up to the licence area covered by the grid (± one cell row)
     const total = Object.values(s.areas_km2.whole_grid as Record<string, { km2: number }>).reduce((a, b) => a + b.km2, 0);
     expect(total).toBeGreaterThan(59_000);
@@ -159,7 +164,7 @@ describe('taperline demo outputs', () => {
     const v = execFileSync(GDAL_PYTHON, [`${GDAL_SAMPLES}/validate_gpkg.py`, gpkg], { encoding: 'utf8' });
     expect(v.trim()).toBe(''); // silent when valid
     const layers = execFileSync('ogrinfo', ['-q', gpkg], { encoding: 'utf8' }).trim().split('\n').map((l) => /^\d+: (\S+)/.exec(l)![1]);
-    const bases = ['boundary_pieces', 'cot_zone', 'boundary_lines', 'boundary_pieces_whole_grid', 'cot_zone_whole_grid', 'boundary_lines_whole_grid', 'domains'];
+    const bases = ['boundary_pieces', 'cot_zone', 'boundary_lines', 'boundary_pieces_whole_grid', 'cot_zone_whole_grid', 'boundary_lines_whole_grid', 'domains', 'domains_whole_grid'];
     expect(layers.sort()).toEqual(bases.flatMap((b) => [`${b}_wgs84`, `${b}_epsg32709`]).sort());
     const count = (file: string, pred: (f: { properties: { kind?: string } }) => boolean) => JSON.parse(readFileSync(join(out, file), 'utf8')).features.filter(pred).length;
     const want: Record<string, number> = {
