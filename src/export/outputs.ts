@@ -178,7 +178,7 @@ export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCol
     grid_rules: Object.fromEntries(DERIVED.map((d) => [d.name, APPLIES_TEXT[d.applies]])),
     grids_not_written: emptyGrids(r),
     depth_anomaly_reference: r.applied.anomalyReference,
-    flagged_cells: { ...r.derived.flags, ...r.applied.counts, ...classFlagCounts(r.classified.flags) },
+    flagged_cells: snakeKeys({ ...r.derived.flags, ...r.applied.counts, ...classFlagCounts(r.classified.flags) }),
     domain_cells: r.classified.counts,
     continental_blocks: {
       min_block_km2: Math.round(r.classified.minBlockKm2 * 1000) / 1000,
@@ -193,6 +193,11 @@ export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCol
     notes: r.boundaries.notes,
     warnings: r.warnings,
   };
+}
+
+/** camelCase keys → snake_case (one naming convention in every output). */
+function snakeKeys(o: Record<string, number>): Record<string, number> {
+  return Object.fromEntries(Object.entries(o).map(([k, v]) => [k.replace(/[A-Z]/g, (c) => `_${c.toLowerCase()}`), v]));
 }
 
 function lonLat(r: PipelineResult, x: number, y: number): { lon: number; lat: number } {
