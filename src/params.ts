@@ -181,13 +181,38 @@ export class ParamError extends Error {
   }
 }
 
+/** The known key nearest to a misspelt one (Levenshtein distance ≤ 3, or a case-insensitive match), or null. */
+export function nearestKey(key: string, known: readonly string[]): string | null {
+  let best: string | null = null;
+  let bestD = Infinity;
+  for (const k of known) {
+    if (k.toLowerCase() === key.toLowerCase()) return k;
+    const d = levenshtein(key.toLowerCase(), k.toLowerCase());
+    if (d < bestD) (bestD = d), (best = k);
+  }
+  return bestD <= Math.min(3, Math.max(1, Math.floor(key.length / 3))) ? best : null;
+}
+
+function levenshtein(a: string, b: string): number {
+  let prev = Array.from({ length: b.length + 1 }, (_, j) => j);
+  for (let i = 1; i <= a.length; i++) {
+    const cur = [i];
+    for (let j = 1; j <= b.length; j++) cur[j] = Math.min(prev[j] + 1, cur[j - 1] + 1, prev[j - 1] + (a[i - 1] === b[j - 1] ? 0 : 1));
+    prev = cur;
+  }
+  return prev[b.length];
+}
+
 /** Merge user values over the defaults and validate; unknown keys and impossible values are errors. */
-export function resolveParams(user: Partial<Record<string, unknown>> = {}): Params {
+export function resolveParams(user: Partial<Record<string, unknown>> = {}, extraKeys?: readonly string[]): Params {
   const p: Record<string, unknown> = { ...DEFAULT_PARAMS };
   const known = new Map(PARAM_SPECS.map((s) => [s.key as string, s]));
   for (const [k, v] of Object.entries(user)) {
     const spec = known.get(k);
-    if (!spec) throw new ParamError(`unknown parameter "${k}" (known: ${[...known.keys()].join(', ')})`);
+    if (!spec) {
+      const near = nearestKey(k, [...known.keys(), ...(extraKeys ?? [])]);
+      throw new ParamError(`unknown parameter "${k}"${near ? ` — did you mean "${near}"?` : ''} (taperline --help lists them all)`);
+    }
     if (v === null || v === undefined || v === '') {
       if (!spec.nullable) throw new ParamError(`parameter ${k} needs a value`);
       p[k] = null;
@@ -198,8 +223,9 @@ export function resolveParams(user: Partial<Record<string, unknown>> = {}): Para
       p[k] = v;
       continue;
     }
-    const n = typeof v === 'number' ? v : typeof v === 'string' ? Number(v) : NaN;
-    if (!Number.isFinite(n)) throw new ParamError(`parameter ${k} must be a number; got ${JSON.stringify(v)}`);
+    // a JSON number, not a string that happens to parse ("0x8000" is not 32 768 m of crust)
+    if (typeof v !== 'number' || !Number.isFinite(v)) throw new ParamError(`parameter ${k} must be a number${spec.unit ? ` (${spec.unit})` : ''}; got ${JSON.stringify(v)}`);
+    const n = v;
     if ((spec.min !== undefined && n < spec.min) || (spec.max !== undefined && n > spec.max)) {
       throw new ParamError(`parameter ${k} = ${n} ${spec.unit} is outside ${spec.min}…${spec.max} ${spec.unit}`.trim());
     }

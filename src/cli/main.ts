@@ -7,12 +7,12 @@ import { fileURLToPath } from 'node:url';
 import { InputError } from '../io/errors.js';
 import { outputFiles } from '../export/outputs.js';
 import { geoPackage } from '../export/gpkg.js';
-import { ParamError, PARAM_SPECS, DEFAULT_PARAMS } from '../params.js';
+import { ParamError, PARAM_SPECS, DEFAULT_PARAMS, resolveParams } from '../params.js';
 import { runPipeline, type PipelineInputs } from '../pipeline.js';
 import type { GridReadOptions } from '../io/geotiff-read.js';
 import type { LengthUnit, Sign } from '../io/detect.js';
 import { loadGrid, loadVectors } from './load.js';
-import { DEFAULT_PLAN, PLAN_SPECS } from '../survey/params.js';
+import { DEFAULT_PLAN, PLAN_SPECS, resolvePlan } from '../survey/params.js';
 import { planFromResult } from '../survey/run.js';
 import { surveyCsv, surveyGeoJson } from '../export/survey.js';
 
@@ -216,6 +216,8 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
   let result;
   let files: Record<string, Uint8Array>;
   try {
+    resolvePlan(planParams); // planning keys are checked in synth too (they share the params file)
+    resolveParams(pipelineParams, [...planKeys]); // unknown keys, with the nearest known one suggested
     const exclude = str(flags, 'exclude-pick');
     const excludePicks = exclude ? exclude.split(',').map((q) => q.trim()).filter(Boolean) : [];
     result = runPipeline(inputs, { params: pipelineParams, excludePicks });

@@ -93,7 +93,7 @@ export function resolvePlan(user: Partial<Record<string, unknown>> = {}): PlanPa
       p[k] = null;
       continue;
     }
-    const n = Number(v);
+    const n = typeof v === 'number' ? v : NaN;
     if (!Number.isFinite(n) || (spec.min !== undefined && n < spec.min) || (spec.max !== undefined && n > spec.max)) {
       throw new Error(`plan parameter ${k} = ${JSON.stringify(v)} must be a number in ${spec.min}…${spec.max} ${spec.unit}`);
     }

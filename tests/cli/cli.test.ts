@@ -24,6 +24,7 @@ beforeAll(() => {
   }
   writeFileSync(f('huge.tif'), big);
   writeFileSync(f('bad-params.json'), JSON.stringify({ rhoMantle: 2500 }));
+  writeFileSync(f('bad-plan.json'), JSON.stringify({ spacingKm: 'wide' }));
   // a bow-tie licence: its edges cross at (-128.5, -35.0)
   const bow = [[-129, -35.5], [-128, -34.5], [-128, -35.5], [-129, -34.5], [-129, -35.5]];
   writeFileSync(f('bowtie.geojson'), JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [bow] } }] }));
@@ -52,6 +53,7 @@ describe('taperline CLI', () => {
     ['a file that is not a grid', ['--seabed', f('notes.tif')], /notes\.tif: is not a TIFF file/],
     ['a declared size beyond memory', ['--seabed', f('huge.tif')], /huge\.tif: declares 100000 × 100000 cells/],
     ['impossible parameters', ['--params', f('bad-params.json')], /bad-params\.json: mantle density \(2500\) must exceed crust density/],
+    ['a planning value that is not a number, in synth', ['--params', f('bad-plan.json')], /bad-plan\.json: plan parameter spacingKm = "wide" must be a number/],
     ['a licence that is not a polygon file', ['--licence', f('moho.tif')], /moho\.tif: is not valid JSON/],
     ['a self-intersecting licence', ['--licence', f('bowtie.geojson')], /bowtie\.geojson: polygon 0 crosses itself at \(-128\.50000, -35\.00000\)/],
   ];

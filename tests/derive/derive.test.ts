@@ -94,6 +94,14 @@ describe('parameter validation', () => {
     expect(() => resolveParams({ tcZero: 3 })).toThrow(/unknown parameter "tcZero"/);
     expect(() => resolveParams({ taperThreshold: 9000, couplingThickness: 8000 })).toThrow(/taper threshold \(9000 m\) must be below/);
   });
+  it('numbers must be JSON numbers; a misspelt key gets the nearest known one suggested', () => {
+    expect(() => resolveParams({ tc0: '0x8000' })).toThrow(/parameter tc0 must be a number \(m\); got "0x8000"/);
+    expect(() => resolveParams({ tc0: '35000' })).toThrow(/must be a number/);
+    expect(() => resolveParams({ taperThreshhold: 2500 })).toThrow(/unknown parameter "taperThreshhold" — did you mean "taperThreshold"\?/);
+    expect(() => resolveParams({ RIFTAGE: 100 })).toThrow(/did you mean "riftAge"/);
+    expect(() => resolveParams({ zzz: 1 })).toThrow(/^unknown parameter "zzz" \(taperline --help lists them all\)$/);
+    expect(() => resolveParams({ spacingKn: 20 }, ['spacingKm'])).toThrow(/did you mean "spacingKm"/);
+  });
   it('defaults are the documented ones', () => {
     expect(resolveParams()).toEqual(DEFAULT_PARAMS);
     expect(DEFAULT_PARAMS.tc0).toBe(35_000);
