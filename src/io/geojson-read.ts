@@ -36,7 +36,8 @@ export function readGeoJson(text: string, file: string): VectorSet {
   const root = doc as { type?: string; features?: unknown[]; crs?: { properties?: { name?: string } } };
   if (!root || typeof root !== 'object' || !root.type) throw new InputError(file, 'is not GeoJSON (no "type" member)');
   let crs: Crs = WGS84;
-  const crsName = root.crs?.properties?.name;
+  const crsName = root.crs && typeof root.crs === 'object' ? root.crs.properties?.name : undefined;
+  if (crsName !== undefined && typeof crsName !== 'string') throw new InputError(file, 'has a "crs" member whose name is not text');
   if (crsName) {
     const m = /EPSG:{1,2}(\d+)/i.exec(crsName);
     if (!m) throw new InputError(file, `names a CRS Taperline cannot read ("${crsName}")`);
@@ -47,13 +48,21 @@ export function readGeoJson(text: string, file: string): VectorSet {
     }
     if (crs !== WGS84) warnings.push(`uses a "crs" member (${crsName}); RFC 7946 GeoJSON is WGS84 longitude/latitude`);
   }
-  const raw: { geometry?: { type?: string; coordinates?: unknown }; properties?: Record<string, unknown> | null }[] =
-    root.type === 'FeatureCollection' ? ((root.features ?? []) as never[]) : root.type === 'Feature' ? [root as never] : [{ geometry: root as never, properties: {} }];
+  if (typeof root.type !== 'string') throw new InputError(file, 'is not GeoJSON ("type" is not text)');
+  if (root.type === 'FeatureCollection' && !Array.isArray(root.features)) throw new InputError(file, 'is a FeatureCollection whose "features" is not a list');
+  const raw: unknown[] =
+    root.type === 'FeatureCollection' ? (root.features as unknown[]) : root.type === 'Feature' ? [root] : [{ type: 'Feature', geometry: root, properties: {} }];
   const features: VectorFeature[] = [];
-  raw.forEach((f, index) => {
-    const g = f.geometry;
-    if (!g || !g.type) throw new InputError(file, `feature ${index} has no geometry`);
-    const props = f.properties ?? {};
+  raw.forEach((item, index) => {
+    if (!item || typeof item !== 'object' || Array.isArray(item)) throw new InputError(file, `feature ${index} is not a GeoJSON object`);
+    const f = item as { geometry?: unknown; properties?: unknown };
+    const g = f.geometry as { type?: unknown; coordinates?: unknown } | null | undefined;
+    if (!g || typeof g !== 'object' || typeof g.type !== 'string') throw new InputError(file, `feature ${index} has no geometry`);
+    if (!Array.isArray(g.coordinates)) throw new InputError(file, `feature ${index}: its ${g.type} has no list of coordinates`);
+    if (f.properties !== undefined && f.properties !== null && (typeof f.properties !== 'object' || Array.isArray(f.properties))) {
+      throw new InputError(file, `feature ${index}: "properties" is not an object`);
+    }
+    const props = (f.properties ?? {}) as Record<string, unknown>;
     const c = g.coordinates as unknown;
     const pos = (p: unknown, where: string): Position => {
       if (!Array.isArray(p) || p.length < 2 || !Number.isFinite(p[0]) || !Number.isFinite(p[1])) {
@@ -64,6 +73,10 @@ export function readGeoJson(text: string, file: string): VectorSet {
       }
       return [p[0], p[1]];
     };
+    const list = (v: unknown, what: string): unknown[] => {
+      if (!Array.isArray(v)) throw new InputError(file, `feature ${index}: the coordinates of its ${what} are not a list`);
+      return v;
+    };
     const ring = (r: unknown, where: string) => {
       if (!Array.isArray(r)) throw new InputError(file, `feature ${index}: ${where} is not a list of positions`);
       return r.map((p, k) => pos(p, `${where} position ${k}`));
@@ -73,19 +86,19 @@ export function readGeoJson(text: string, file: string): VectorSet {
         features.push({ kind: 'point', parts: [[pos(c, 'point')]], properties: props, index });
         break;
       case 'MultiPoint':
-        for (const p of c as unknown[]) features.push({ kind: 'point', parts: [[pos(p, 'point')]], properties: props, index });
+        for (const p of list(c, 'MultiPoint')) features.push({ kind: 'point', parts: [[pos(p, 'point')]], properties: props, index });
         break;
       case 'LineString':
         features.push({ kind: 'line', parts: [ring(c, 'line')], properties: props, index });
         break;
       case 'MultiLineString':
-        for (const l of c as unknown[]) features.push({ kind: 'line', parts: [ring(l, 'line')], properties: props, index });
+        for (const l of list(c, 'MultiLineString')) features.push({ kind: 'line', parts: [ring(l, 'line')], properties: props, index });
         break;
       case 'Polygon':
-        features.push({ kind: 'polygon', parts: (c as unknown[]).map((r, k) => ring(r, `ring ${k}`)), properties: props, index });
+        features.push({ kind: 'polygon', parts: list(c, 'Polygon').map((r, k) => ring(r, `ring ${k}`)), properties: props, index });
         break;
       case 'MultiPolygon':
-        for (const poly of c as unknown[]) features.push({ kind: 'polygon', parts: (poly as unknown[]).map((r, k) => ring(r, `ring ${k}`)), properties: props, index });
+        for (const poly of list(c, 'MultiPolygon')) features.push({ kind: 'polygon', parts: list(poly, 'polygon of a MultiPolygon').map((r, k) => ring(r, `ring ${k}`)), properties: props, index });
         break;
       default:
         throw new InputError(file, `feature ${index} has geometry type ${g.type}, which Taperline does not read`);
