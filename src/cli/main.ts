@@ -1,8 +1,8 @@
 #!/usr/bin/env node
 /** The `taperline` command: a thin shell over the core pipeline (src/pipeline.ts). */
 
-import { existsSync, mkdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
-import { dirname, join, resolve } from 'node:path';
+import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { dirname, join, resolve, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { InputError } from '../io/errors.js';
 import { outputFiles } from '../export/outputs.js';
@@ -95,7 +95,8 @@ each no data outside the domains where its model applies; domains.tif and unboun
 UInt8 with colour tables) and DIR/summary.json (parameters, inputs with sha256, detections, the rule
 of every grid, flagged cells, areas, lengths, suspect picks, warnings); a grid with no value anywhere
 is not written (listed in the summary). Every field: docs/outputs.md. Files appear only when the run
-succeeds. Exit status: 0 success; 2 bad input (message names the file and the problem); 1 otherwise.
+succeeds; a previous run's files that this run does not write are removed (.taperline-outputs lists
+what was written); an output folder holding an input is refused. Exit status: 0 success; 2 bad input (message names the file and the problem); 1 otherwise.
 
 Params file keys (JSON object; every key optional):
 ${paramLines}
@@ -167,6 +168,7 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
   const basementPath = str(flags, 'top-basement');
   const mohoPath = str(flags, 'moho');
   if (!basementPath || !mohoPath) throw new UsageError('synth needs --top-basement F and --moho F');
+  checkOutputFolder(out, ['top-basement', 'moho', 'seabed', 'licence', 'lines', 'existing', 'picks', 'isochrons', 'crust', 'params'].map((k) => (flags.get(k) === true ? undefined : (flags.get(k) as string | undefined))));
   let params: Record<string, unknown> = {};
   const paramsPath = str(flags, 'params');
   if (paramsPath) {
@@ -246,22 +248,76 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
   process.stdout.write(`wrote ${Object.keys(files).length} files to ${out}\n`);
 }
 
-/** Write every file under a temporary folder, then move them into place; nothing is left on failure. */
+const MANIFEST = '.taperline-outputs';
+
+/**
+ * Write every file under a temporary folder, then move them into place; nothing is left on failure.
+ * Files a previous run wrote here (listed in the folder's manifest) that this run does not write are
+ * removed, so no stale output sits beside new ones; temporary folders that earlier, killed runs left
+ * are removed too; a signal mid-write removes this run's temporary folder before exiting. An output
+ * folder that cannot be written gives one line naming it.
+ */
 function writeAtomically(out: string, files: Record<string, Uint8Array>): void {
-  mkdirSync(out, { recursive: true });
   const tmp = join(out, `.taperline-tmp-${process.pid}`);
-  rmSync(tmp, { recursive: true, force: true });
+  const onSignal = (sig: NodeJS.Signals) => {
+    rmSync(tmp, { recursive: true, force: true });
+    process.stderr.write(`taperline: stopped by ${sig}; nothing was written to ${out}\n`);
+    process.exit(130);
+  };
+  process.once('SIGINT', onSignal);
+  process.once('SIGTERM', onSignal);
   try {
+    makeDir(out);
+    for (const name of readdirSync(out)) if (name.startsWith('.taperline-tmp-')) rmSync(join(out, name), { recursive: true, force: true });
     for (const [rel, bytes] of Object.entries(files)) {
       mkdirSync(dirname(join(tmp, rel)), { recursive: true });
       writeFileSync(join(tmp, rel), bytes);
     }
+    const previous = existsSync(join(out, MANIFEST)) ? readFileSync(join(out, MANIFEST), 'utf8').split('\n').filter(Boolean) : [];
     for (const rel of Object.keys(files)) {
       mkdirSync(dirname(join(out, rel)), { recursive: true });
       renameSync(join(tmp, rel), join(out, rel));
     }
+    for (const rel of previous) {
+      // only plain relative names this tool wrote; never anything outside the folder
+      if (!(rel in files) && !rel.includes('..') && !rel.startsWith('/')) rmSync(join(out, rel), { force: true });
+    }
+    writeFileSync(join(out, MANIFEST), Object.keys(files).sort().join('\n') + '\n');
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    if (code) throw new InputError(out, `cannot be written (${code}): choose another --out folder`);
+    throw err;
   } finally {
     rmSync(tmp, { recursive: true, force: true });
+    process.removeListener('SIGINT', onSignal);
+    process.removeListener('SIGTERM', onSignal);
+  }
+}
+
+/**
+ * mkdir -p one level at a time: Node's recursive mkdir can loop forever under /proc (where mkdir
+ * fails with ENOENT on a parent that exists), so each missing level is made on its own and the first
+ * failure is thrown.
+ */
+function makeDir(path: string): void {
+  const missing: string[] = [];
+  let p = resolve(path);
+  while (!existsSync(p)) {
+    missing.push(p);
+    const up = dirname(p);
+    if (up === p) break;
+    p = up;
+  }
+  for (const m of missing.reverse()) mkdirSync(m);
+}
+
+/** Refuse an output folder that holds one of the inputs: a run must never overwrite what it reads. */
+function checkOutputFolder(out: string, inputs: (string | undefined)[]): void {
+  const root = resolve(out);
+  for (const p of inputs) {
+    if (!p) continue;
+    const full = resolve(p);
+    if (full.startsWith(root + sep)) throw new InputError(p, `lies inside the output folder ${out}: choose another --out so that no input can be overwritten`);
   }
 }
 

@@ -1,5 +1,5 @@
 // The taperline command where users meet it: help, exit codes, one-line messages, no half-written output.
-import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -91,7 +91,41 @@ describe('taperline CLI', () => {
     expect(r.status).toBe(0);
     const s = JSON.parse(readFileSync(join(f('minimal'), 'summary.json'), 'utf8'));
     expect(s.warnings.join()).toMatch(/no seabed grid/);
-    expect(readdirSync(f('minimal')).filter((n) => n.startsWith('.'))).toEqual([]);
+    // no temporary folder left; only the list of what this run wrote
+    expect(readdirSync(f('minimal')).filter((n) => n.startsWith('.'))).toEqual(['.taperline-outputs']);
+  });
+});
+
+describe('nothing overwritten, nothing stale', () => {
+  it('refuses an output folder that holds an input', () => {
+    mkdirSync(f('inside'), { recursive: true });
+    writeFileSync(f('inside/boundaries.geojson'), demoFiles()['licence.geojson']);
+    const r = synth(['--licence', f('inside/boundaries.geojson')], f('inside'));
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim().split('\n')).toHaveLength(1);
+    expect(r.stderr).toMatch(/boundaries\.geojson: lies inside the output folder/);
+    expect(readFileSync(f('inside/boundaries.geojson'))).toEqual(Buffer.from(demoFiles()['licence.geojson'])); // untouched
+  });
+
+  it("removes what a previous run wrote and this one does not, keeps the user's own files, and clears stale temporary folders", () => {
+    const out = f('rerun');
+    expect(synth(['--licence', f('licence.geojson')], out).status).toBe(0);
+    expect(existsSync(join(out, 'boundaries-whole-grid.geojson'))).toBe(true);
+    writeFileSync(join(out, 'my-notes.txt'), 'mine');
+    mkdirSync(join(out, '.taperline-tmp-999999'), { recursive: true });
+    writeFileSync(join(out, '.taperline-tmp-999999', 'half.tif'), 'half-written');
+    expect(synth([], out).status).toBe(0); // no licence this time
+    expect(existsSync(join(out, 'boundaries-whole-grid.geojson'))).toBe(false);
+    expect(existsSync(join(out, 'boundaries.geojson'))).toBe(true);
+    expect(readFileSync(join(out, 'my-notes.txt'), 'utf8')).toBe('mine');
+    expect(existsSync(join(out, '.taperline-tmp-999999'))).toBe(false);
+  });
+
+  it('an output folder that cannot be written gives one line naming it', () => {
+    const r = synth([], '/proc/taperline-out');
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim().split('\n')).toHaveLength(1);
+    expect(r.stderr).toMatch(/\/proc\/taperline-out: cannot be written \(E[A-Z]+\)/);
   });
 });
 
@@ -116,7 +150,7 @@ describe('taperline plan', () => {
     const out = f('plan');
     const r = taperline(['plan', '--top-basement', f('top-basement.tif'), '--moho', f('moho.tif'), '--seabed', f('seabed.tif'), '--existing', f('seismic-lines.geojson'), '--picks', f('picks.geojson'), '--spacing', '25', '--overhang-landward', '15', '--overhang-oceanward', '10', '--out', out]);
     expect(r.status).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(['survey-lines.csv', 'survey-lines.geojson']);
+    expect(readdirSync(out).sort()).toEqual(['.taperline-outputs', 'survey-lines.csv', 'survey-lines.geojson']);
     const csv = readFileSync(join(out, 'survey-lines.csv'), 'utf8').split('\n');
     expect(csv[0]).toBe('id,kind,rank,start_lon,start_lat,end_lon,end_lat,start_x,start_y,end_x,end_y,length_km,cumulative_km,record_length_s,crossings,analysis_crs');
     expect(csv[1]).toMatch(/"EPSG:32709 WGS 84 \/ UTM zone 9S"$/);

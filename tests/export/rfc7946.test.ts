@@ -57,7 +57,7 @@ describe('taperline demo outputs', () => {
     expect(run.stderr).not.toMatch(/internal error/);
     expect(run.status).toBe(0);
     const names = readdirSync(out).sort();
-    expect(names).toEqual(['boundaries-whole-grid.geojson', 'boundaries.geojson', 'boundaries.gpkg', 'boundary-lines-whole-grid.geojson', 'boundary-lines.geojson', 'domains-whole-grid.geojson', 'domains.geojson', 'grids', 'summary.json']);
+    expect(names).toEqual(['.taperline-outputs', 'boundaries-whole-grid.geojson', 'boundaries.geojson', 'boundaries.gpkg', 'boundary-lines-whole-grid.geojson', 'boundary-lines.geojson', 'domains-whole-grid.geojson', 'domains.geojson', 'grids', 'summary.json']);
     expect(readdirSync(join(out, 'grids'))).toContain('crustal-thickness.tif');
     const grids = readdirSync(join(out, 'grids'));
     const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
