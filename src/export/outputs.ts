@@ -108,7 +108,7 @@ export function provenance(r: PipelineResult, run: RunInfo): Record<string, unkn
   };
 }
 
-export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCollection): Record<string, unknown> {
+export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCollection, domainsInLicence?: FeatureCollection): Record<string, unknown> {
   const inputs = Object.entries(r.inputs)
     .filter(([, v]) => v)
     .map(([role, v]) => {
@@ -128,7 +128,7 @@ export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCol
   let exactInLicence: Map<number, number> | undefined;
   if (r.evidence.licence) {
     exactInLicence = new Map();
-    for (const f of domainsGeoJson(r, 'licence').features) {
+    for (const f of (domainsInLicence ?? domainsGeoJson(r, 'licence')).features) {
       const c = Number(f.properties.code);
       exactInLicence.set(c, (exactInLicence.get(c) ?? 0) + Number(f.properties.area_km2));
     }
@@ -220,11 +220,12 @@ function classFlagCounts(flags: Uint8Array): Record<string, number> {
 
 export function outputFiles(r: PipelineResult, run: RunInfo): Record<string, Uint8Array> {
   const bfc = boundariesGeoJson(r);
+  const domains = domainsGeoJson(r); // inside the licence when one is given (clipped once, used twice)
   const made = provenance(r, run);
   const files: Record<string, Uint8Array> = {
     'boundaries.geojson': json({ ...bfc, generated_by: made }),
     'boundary-lines.geojson': json({ ...boundaryLinesGeoJson(r), generated_by: made }),
-    'domains.geojson': json({ ...domainsGeoJson(r), generated_by: made }),
+    'domains.geojson': json({ ...domains, generated_by: made }),
     ...(r.evidence.licence ? { 'domains-whole-grid.geojson': json({ ...domainsGeoJson(r, 'regional'), generated_by: made }) } : {}),
     ...gridFiles(r, run),
   };
@@ -232,6 +233,6 @@ export function outputFiles(r: PipelineResult, run: RunInfo): Record<string, Uin
     files['boundaries-whole-grid.geojson'] = json({ ...boundariesGeoJson(r, 'regional'), generated_by: made });
     files['boundary-lines-whole-grid.geojson'] = json({ ...boundaryLinesGeoJson(r, 'regional'), generated_by: made });
   }
-  files['summary.json'] = json(summary(r, run, bfc));
+  files['summary.json'] = json(summary(r, run, bfc, r.evidence.licence ? domains : undefined));
   return files;
 }
