@@ -2,7 +2,8 @@
  * Colour ramps and raster colouring for display. Continuous grids use viridis (van der Walt & Smith,
  * matplotlib 2015; perceptually uniform and readable with common colour-vision deficiencies) from
  * d3-scale-chromatic, a maintained colour library. Domains use a categorical set of
- * our own. No data is transparent; +∞ (unbounded β) gets its own colour and legend entry.
+ * our own. No data is transparent. Shown grids hold no ±∞ (derive/applicability masks it); a raw +∞,
+ * should one reach this, gets its own colour rather than the ramp's end.
  */
 
 import { interpolateViridis } from 'd3-scale-chromatic';
