@@ -1,20 +1,27 @@
 /**
- * GeoTIFF → Grid (metres, positive down, NaN = no data), through geotiff.js.
- * Works on bytes, so the same code runs in the browser and in Node.
+ * GeoTIFF → Grid (metres, positive down, NaN = no data). Our own reader (src/io/tiff/), so that
+ * every size and offset is checked against the file and a memory budget before anything is
+ * allocated, and every failure is an InputError naming the file. Works on bytes, so the same code
+ * runs in the browser and in Node.
  */
 
-import { fromArrayBuffer } from 'geotiff';
 import { crsFromEpsg, resolveCrs, UnknownCrsError, type Crs } from '../crs/registry.js';
 import type { GridGeometry, Registration } from '../grid/geometry.js';
 import { makeGrid, type Grid } from '../grid/grid.js';
 import { toDepthMetres, type Decided, type DepthOptions } from './detect.js';
 import { InputError, MAX_CELLS } from './errors.js';
+import { decodeBand } from './tiff/decode.js';
+import { GEOKEY, geoKeyNumber, readGdalMetadata, readGdalNoData, readGeoKeys, readGeoreference, type GeoKeys } from './tiff/geo.js';
+import { readFirstIfd, text } from './tiff/ifd.js';
+import { readLayout } from './tiff/layout.js';
 import type { GridReadReport } from './report.js';
 
 export interface GridReadOptions extends DepthOptions {
   /** EPSG code or proj4 string; overrides the file's CRS. */
   crs?: string;
   registration?: Registration;
+  /** Memory one grid file may take while read, MB (default DEFAULT_READ_BUDGET_MB). */
+  readBudgetMB?: number;
 }
 
 export interface GridReadResult {
@@ -23,91 +30,65 @@ export interface GridReadResult {
 }
 
 const SAMPLE_TYPES: Record<string, string> = {
-  '1:8': 'UInt8', '1:16': 'UInt16', '1:32': 'UInt32', '2:8': 'Int8', '2:16': 'Int16', '2:32': 'Int32',
-  '3:32': 'Float32', '3:64': 'Float64',
+  'uint:8': 'UInt8', 'uint:16': 'UInt16', 'uint:32': 'UInt32', 'int:8': 'Int8', 'int:16': 'Int16', 'int:32': 'Int32',
+  'float:32': 'Float32', 'float:64': 'Float64',
 };
-
-export function toArrayBuffer(bytes: ArrayBuffer | Uint8Array): ArrayBuffer {
-  if (bytes instanceof ArrayBuffer) return bytes;
-  return bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
-}
 
 export async function readGeoTiff(
   bytes: ArrayBuffer | Uint8Array,
   file: string,
   options: GridReadOptions = {},
 ): Promise<GridReadResult> {
-  const buf = toArrayBuffer(bytes);
-  if (buf.byteLength < 8) throw new InputError(file, `is ${buf.byteLength} bytes long: not a GeoTIFF`);
-  const magic = new Uint8Array(buf, 0, 4);
-  const tiffMagic = (magic[0] === 0x49 && magic[1] === 0x49) || (magic[0] === 0x4d && magic[1] === 0x4d);
-  if (!tiffMagic) throw new InputError(file, 'is not a TIFF file (it does not start with a TIFF header)');
-
-  let image;
-  try {
-    const tiff = await fromArrayBuffer(buf);
-    image = await tiff.getImage();
-  } catch (err) {
-    throw new InputError(file, `cannot be read as a GeoTIFF (${(err as Error).message})`);
-  }
-  const nx = image.getWidth();
-  const ny = image.getHeight();
+  const u8 = bytes instanceof Uint8Array ? bytes : new Uint8Array(bytes);
+  // Structure, georeferencing and size are checked before any pixel buffer exists.
+  const ifd = readFirstIfd(u8, file);
+  const layout = readLayout(ifd, options.readBudgetMB);
+  const { width: nx, height: ny } = layout;
   if (nx * ny > MAX_CELLS) {
     throw new InputError(file, `declares ${nx} × ${ny} cells, beyond the ${MAX_CELLS.toExponential(0)} cells Taperline will allocate`);
   }
-  const bands = image.getSamplesPerPixel();
-  const sampleType = SAMPLE_TYPES[`${image.getSampleFormat(0)}:${image.getBitsPerSample(0)}`] ?? 'unknown';
-
-  let origin: number[];
-  let res: number[];
-  try {
-    origin = image.getOrigin();
-    res = image.getResolution();
-  } catch {
-    throw new InputError(file, 'has no georeferencing (no tie point and pixel scale): not a GeoTIFF grid');
-  }
-
-  const crsDecided = decideCrs(file, image.getGeoKeys(), options.crs);
+  const georef = readGeoreference(ifd);
+  const keys = readGeoKeys(ifd);
+  const crsDecided = decideCrs(file, keys, options.crs);
+  const rasterType = keys ? geoKeyNumber(keys, GEOKEY.raster, file) : undefined;
   const registration: Decided<Registration> = options.registration
     ? { value: options.registration, source: 'option', detail: 'set by the user' }
-    : image.pixelIsArea()
-      ? { value: 'area', source: 'metadata', detail: 'RasterPixelIsArea' }
-      : { value: 'node', source: 'metadata', detail: 'RasterPixelIsPoint' };
-  const [dx, dy] = res;
+    : rasterType === 2
+      ? { value: 'node', source: 'metadata', detail: 'RasterPixelIsPoint' }
+      : { value: 'area', source: rasterType === 1 ? 'metadata' : 'default', detail: rasterType === 1 ? 'RasterPixelIsArea' : 'no raster type key: RasterPixelIsArea assumed' };
+  const { dx, dy } = georef;
   const half = registration.value === 'area' ? 0.5 : 0;
   const geometry: GridGeometry = {
     nx,
     ny,
-    x0: origin[0] + half * dx,
-    y0: origin[1] + half * dy,
+    x0: georef.x + half * dx,
+    y0: georef.y + half * dy,
     dx,
     dy,
     registration: registration.value,
     crs: crsDecided.crs,
   };
-
-  let raw;
-  try {
-    raw = (await image.readRasters({ interleave: false, samples: [0] })) as unknown as ArrayLike<number>[];
-  } catch (err) {
-    throw new InputError(file, `pixel data cannot be decoded (${(err as Error).message}): the file is damaged, truncated or uses an unsupported encoding`);
+  if (!Number.isFinite(geometry.x0 + nx * dx) || !Number.isFinite(geometry.y0 + ny * dy)) {
+    throw new InputError(file, 'declares a grid whose far edge is not a finite number: damaged georeferencing');
   }
-  const band = raw[0];
-  if (!band || band.length !== nx * ny) throw new InputError(file, 'pixel data is shorter than the declared size: the file is truncated');
 
-  const perBand = ((await image.getGDALMetadata(0)) ?? {}) as Record<string, unknown>;
-  const dataset = ((await image.getGDALMetadata()) ?? {}) as Record<string, unknown>;
-  const scale = perBand.SCALE !== undefined ? Number(perBand.SCALE) : 1;
-  const offset = perBand.OFFSET !== undefined ? Number(perBand.OFFSET) : 0;
-  const descriptions = [perBand.DESCRIPTION, dataset.DESCRIPTION, dataset.TIFFTAG_IMAGEDESCRIPTION]
+  const meta = readGdalMetadata(ifd);
+  const scale = metaNumber(file, meta.band.SCALE, 'scale', 1);
+  const offset = metaNumber(file, meta.band.OFFSET, 'offset', 0);
+  if (scale === 0) throw new InputError(file, 'declares a scale of 0: every value would be the offset (damaged metadata)');
+  const noData = readGdalNoData(ifd);
+  const band = await decodeBand(ifd, layout, noData !== null && Number.isFinite(noData) ? noData : 0);
+
+  const descriptions = [meta.band.DESCRIPTION, meta.dataset.DESCRIPTION, meta.dataset.TIFFTAG_IMAGEDESCRIPTION, text(ifd, 270)]
     .filter((d): d is string => typeof d === 'string');
   const { values, report } = toDepthMetres(
     band,
-    { fileName: file, unitTag: typeof perBand.UNITTYPE === 'string' ? perBand.UNITTYPE : undefined, descriptions },
+    { fileName: file, unitTag: meta.band.UNITTYPE, descriptions },
     options,
-    image.getGDALNoData(),
+    noData,
     { scale, offset },
   );
+  const bands = layout.samplesPerPixel;
   if (bands > 1) report.warnings.push(`has ${bands} bands: only band 1 is used`);
   if (scale !== 1 || offset !== 0) report.warnings.push(`scale ${scale} and offset ${offset} applied from the file`);
   if (crsDecided.warning) report.warnings.push(crsDecided.warning);
@@ -124,14 +105,21 @@ export async function readGeoTiff(
       dy,
       registration,
       crs: { value: crsDecided.crs.id === 'PROJ4' ? crsDecided.crs.proj4 : crsDecided.crs.id, source: crsDecided.source, detail: crsDecided.crs.name },
-      sampleType,
+      sampleType: SAMPLE_TYPES[`${layout.kind}:${layout.bitsPerSample}`] ?? 'unknown',
     },
   };
 }
 
+function metaNumber(file: string, raw: string | undefined, what: string, fallback: number): number {
+  if (raw === undefined) return fallback;
+  const v = Number(raw.trim());
+  if (raw.trim() === '' || !Number.isFinite(v) || /^0x/i.test(raw.trim())) throw new InputError(file, `declares a ${what} of "${raw.slice(0, 40)}", not a number: damaged metadata`);
+  return v;
+}
+
 function decideCrs(
   file: string,
-  keys: Record<string, unknown> | null,
+  keys: GeoKeys | null,
   override: string | undefined,
 ): { crs: Crs; source: 'option' | 'metadata'; warning?: string } {
   if (override) {
@@ -142,9 +130,9 @@ function decideCrs(
     }
   }
   if (!keys) throw new InputError(file, 'carries no CRS (no GeoKeys); give one with the CRS option (EPSG code or proj4 string)');
-  const model = keys.GTModelTypeGeoKey as number | undefined;
-  const projected = keys.ProjectedCSTypeGeoKey as number | undefined;
-  const geographic = keys.GeographicTypeGeoKey as number | undefined;
+  const model = geoKeyNumber(keys, GEOKEY.model, file);
+  const projected = geoKeyNumber(keys, GEOKEY.projected, file);
+  const geographic = geoKeyNumber(keys, GEOKEY.geographic, file);
   const code = model === 2 ? geographic : (projected ?? geographic);
   if (code === undefined) {
     throw new InputError(file, 'carries no EPSG code in its GeoKeys; give a CRS with the CRS option (EPSG code or proj4 string)');

@@ -53,6 +53,35 @@ describe('GeoTIFF reader on GDAL-made files', () => {
     expect(r.registration.detail).toBe('RasterPixelIsPoint');
     expect(r.noData.masked).toEqual({ '65535': 2 });
   });
+  it('Int16, big-endian, LZW with the integer predictor, 7-row strips', async () => {
+    const r = await check('i16_lzw_pred2_be.tif', (v) => v, 'EPSG:32709', 'area');
+    expect(r.sampleType).toBe('Int16');
+  });
+  it('Float32, PackBits', async () => {
+    await check('f32_packbits.tif', (v) => v, 'EPSG:32709', 'area');
+  });
+  it('BigTIFF: Float32 big-endian DEFLATE tiled, and Float64 DEFLATE + floating-point predictor, 16×32 tiles', async () => {
+    await check('f32_bigtiff_be.tif', (v) => v, 'EPSG:32709', 'area');
+    await check('f64_bigtiff_pred3.tif', (v) => v, 'EPSG:32709', 'area');
+  });
+  it('three bands pixel-interleaved (Int32, DEFLATE + predictor 2) and band-interleaved (UInt16, ZSTD, tiled): band 1 read, a warning', async () => {
+    const a = await check('i32_3band_pixel.tif', (v) => v, 'EPSG:32709', 'area');
+    expect(a.warnings.join()).toMatch(/3 bands: only band 1/);
+    const b = await check('u16_3band_planar.tif', (v) => v, 'EPSG:32709', 'area');
+    expect(b.noData.masked).toEqual({ '65535': 2 });
+  });
+  it('tiles GDAL left out of a sparse file read as no data', async () => {
+    const { grid, report } = await readGeoTiff(bytes('f32_sparse.tif'), 'f32_sparse.tif', { role: 'top-basement' });
+    expect([grid.geometry.nx, grid.geometry.ny]).toEqual([53, 23]);
+    expect(report.noData.total).toBe(16 * 23 + 2);
+    for (let j = 0; j < 23; j++) {
+      for (let i = 0; i < 53; i++) {
+        const v = grid.values[j * 53 + i];
+        if (i < 16 || isHole(i - 16, j)) expect(v).toBeNaN();
+        else expect(v).toBe(expectedRaw(i - 16, j));
+      }
+    }
+  });
   it('kilometres declared by the unit tag are converted to metres', async () => {
     const r = await check('km_units.tif', (v) => Math.fround(v / 1000) * 1000, 'EPSG:32709', 'area');
     expect(r.units).toMatchObject({ value: 'km', source: 'metadata' });
