@@ -11,18 +11,18 @@ import { WGS84 } from '../crs/registry.js';
 import { transformer } from '../crs/transform.js';
 import { APPLIES_TEXT, DERIVED } from '../derive/grids.js';
 import { guessRole } from '../io/detect.js';
-import { parseProject, toBase64, fromBase64, PROJECT_FORMAT, PROJECT_VERSION, type Project } from '../io/project.js';
+import { parseProject, toBase64, fromBase64, INPUT_ROLES, PROJECT_FORMAT, PROJECT_VERSION, type Project } from '../io/project.js';
 import { DEFAULT_PARAMS, PARAM_SPECS, resolveParams, type ParamSpec } from '../params.js';
 import { baseStyle, BOUNDARY_STYLES, COT_FILL, graticule, SUSPECT_PICK } from './basemap.js';
 import { colourBlock, displayRange, DOMAIN_STYLES, viridis, type RampSpec } from './colour.js';
 import { clear, download, fmt, h } from './dom.js';
 import { Engine, type LoadedFile } from './engine.js';
 import type { DisplayResult, GridRole, VectorRole } from './messages.js';
-import { clearAll, loadProject, saveProject, type StoredProject } from './store.js';
+import { clearAll, loadProject, saveProject, saveState, type StoredProject } from './store.js';
 import { tilesFor, type Tile } from './tiles.js';
 import { renderMapImage } from './map-image.js';
 import { renderSection, svgToPng } from './section-view.js';
-import { DEFAULT_PLAN, PLAN_SPECS } from '../survey/params.js';
+import { DEFAULT_PLAN, PLAN_SPECS, resolvePlan } from '../survey/params.js';
 import type { PlanData, SectionData } from './messages.js';
 
 const VERSION = '0.1.0';
@@ -556,7 +556,20 @@ function calibratedNote(): string | null {
 let lastNote: string | null = null;
 let lastPlaced = '';
 
+let renderingParams = false;
+
 function renderParams(): void {
+  // Removing a focused field fires its change (and blur) handlers, which render again: once is enough.
+  if (renderingParams) return;
+  renderingParams = true;
+  try {
+    renderParamsNow();
+  } finally {
+    renderingParams = false;
+  }
+}
+
+function renderParamsNow(): void {
   lastNote = calibratedNote();
   lastPlaced = JSON.stringify(state.result?.summary.placedBy ?? null);
   clear(paramsBox);
@@ -568,10 +581,7 @@ function renderParams(): void {
   paramsBox.append(h('button', { class: 'small', onclick: () => ((state.params = state.demo ? { ...DEMO_PARAMS } : {}), (state.paramErrors = {}), renderParams(), scheduleRun(), autosave()) }, 'Reset to defaults'));
 }
 
-const ROLES: Record<'grid' | 'vector', string[]> = {
-  grid: ['top-basement', 'moho', 'seabed', 'none'],
-  vector: ['licence', 'lines', 'picks', 'isochrons', 'crust', 'none'],
-};
+const ROLES = INPUT_ROLES;
 
 function renderFiles(): void {
   clear(dataList);
@@ -864,10 +874,21 @@ function setStatus(text: string, error = false): void {
 }
 
 // ---------------------------------------------------------------- keep the work
-let saveTimer: ReturnType<typeof setTimeout> | null = null;
+/** What the files record holds; it is rewritten only when this changes. */
+let savedFiles = '';
+
+/**
+ * Save at once, on every change, so a reload right after it loses nothing: parameters, view and
+ * planning always (small); the files' bytes only when the set of files, their roles or options changed.
+ */
 function autosave(): void {
-  if (saveTimer) clearTimeout(saveTimer);
-  saveTimer = setTimeout(() => void saveProject(snapshot()).catch((e) => setStatus(`Autosave failed: ${(e as Error).message}`, true)), 300);
+  const failed = (e: unknown) => setStatus(`Autosave failed: ${(e as Error).message}`, true);
+  const snap = snapshot();
+  const sig = JSON.stringify(snap.files.map((f) => [f.id, f.name, f.role, f.options]));
+  if (sig !== savedFiles) {
+    savedFiles = sig;
+    void saveProject(snap).catch((e) => ((savedFiles = ''), failed(e)));
+  } else void saveState(snap).catch(failed);
 }
 
 function viewState() {
@@ -895,7 +916,8 @@ async function restore(p: StoredProject): Promise<void> {
   state.plan = { ...(p.plan ?? {}) };
   state.excludePicks = [...(p.excludePicks ?? [])];
   renderPlanBox();
-  if (p.view) {
+  // a view saved by another version may name a layer this one lacks: keep the default then
+  if (p.view && PROJECT_SCHEMA.layers.includes(p.view.layer)) {
     state.layer = p.view.layer;
     state.opacity = p.view.opacity;
     state.visible = { ...state.visible, ...p.view.visible };
@@ -923,34 +945,91 @@ async function saveProjectFile(bundle: boolean): Promise<void> {
   download(bundle ? 'project-with-data.taperline.json' : 'project.taperline.json', JSON.stringify(project, null, 1), 'application/json');
 }
 
-projectInput.addEventListener('change', async () => {
+/** What a project file may name: the parameter and planning keys, the map layers. */
+const PROJECT_SCHEMA = {
+  paramKeys: PARAM_SPECS.map((sp) => sp.key as string),
+  planKeys: PLAN_SPECS.map((sp) => sp.key as string),
+  layers: ['domains', ...DERIVED.map((d) => d.name as string)],
+};
+
+/**
+ * Open a project file. Everything is checked — the file's fields, the parameters, and every input
+ * loaded under a new id — before the current files, settings or autosave are touched; a failure
+ * anywhere leaves them exactly as they were.
+ */
+async function openProjectFile(file: File): Promise<void> {
+  const keep = `${file.name} was not opened; your current files and settings are unchanged.`;
+  let p: Project;
+  try {
+    p = parseProject(await file.text(), file.name, PROJECT_SCHEMA);
+    resolveParams(p.params);
+    resolvePlan(p.plan);
+  } catch (err) {
+    setStatus(`${(err as Error).message}. ${keep}`, true);
+    return;
+  }
+  const byHash = new Map<string, LoadedFile>();
+  for (const f of state.files) byHash.set(await sha256(f.bytes), f);
+  const missing: string[] = [];
+  const staged: LoadedFile[] = [];
+  for (const i of p.inputs) {
+    const have = byHash.get(i.sha256);
+    const bytes = i.data ? (fromBase64(i.data).slice().buffer as ArrayBuffer) : have?.bytes;
+    if (!bytes) {
+      missing.push(`${i.name} (${i.bytes} bytes)`);
+      continue;
+    }
+    if (i.data && (await sha256(bytes)) !== i.sha256) {
+      missing.push(`${i.name} (its bundled bytes do not match its checksum)`);
+      continue;
+    }
+    staged.push({ id: `f${nextId++}`, name: i.name, kind: i.kind, role: i.role as LoadedFile['role'], bytes, options: { ...i.options } as LoadedFile['options'], report: null, error: null });
+  }
+  if (missing.length) {
+    setStatus(`${file.name}: load these inputs first, then open the project again: ${missing.join(', ')}. ${keep}`, true);
+    return;
+  }
+  const failures: string[] = [];
+  for (const f of staged) {
+    try {
+      const res = await engine.load(f);
+      Object.assign(f, { report: res.report, features: res.features, warnings: res.warnings });
+    } catch (err) {
+      failures.push((err as Error).message);
+    }
+  }
+  if (failures.length) {
+    for (const f of staged) engine.remove(f.id);
+    setStatus(`${failures.join('; ')}. ${keep}`, true);
+    return;
+  }
+  for (const f of state.files) engine.remove(f.id);
+  state.files = staged;
+  state.params = { ...p.params };
+  state.demo = false;
+  state.plan = { ...p.plan };
+  state.excludePicks = [...p.excludePicks];
+  if (p.view) {
+    state.layer = p.view.layer;
+    state.opacity = p.view.opacity;
+    state.visible = { ...state.visible, ...p.view.visible };
+  }
+  renderPlanBox();
+  renderScenario();
+  renderFiles();
+  renderParams();
+  renderLayers();
+  renderVectors();
+  await run(!p.view);
+  if (p.view) map.jumpTo({ center: p.view.center, zoom: p.view.zoom });
+  autosave();
+  setStatus(`Opened ${file.name}`);
+}
+
+projectInput.addEventListener('change', () => {
   const file = projectInput.files?.[0];
   projectInput.value = '';
-  if (!file) return;
-  try {
-    const p = parseProject(await file.text(), file.name);
-    const byHash = new Map<string, LoadedFile>();
-    for (const f of state.files) byHash.set(await sha256(f.bytes), f);
-    const missing: string[] = [];
-    const files: { name: string; bytes: ArrayBuffer; role: string; options: LoadedFile['options'] }[] = [];
-    for (const i of p.inputs) {
-      const have = byHash.get(i.sha256);
-      if (i.data) files.push({ name: i.name, bytes: fromBase64(i.data).slice().buffer as ArrayBuffer, role: i.role, options: i.options });
-      else if (have) files.push({ name: i.name, bytes: have.bytes, role: i.role, options: i.options });
-      else missing.push(`${i.name} (${i.bytes} bytes)`);
-    }
-    if (missing.length) {
-      setStatus(`${file.name}: load these inputs first, then open the project again: ${missing.join(', ')}`, true);
-      return;
-    }
-    for (const f of state.files) engine.remove(f.id);
-    state.files = [];
-    await restore({ files: files.map((f, k) => ({ id: `p${k}`, name: f.name, kind: kindOf(f.name) ?? 'vector', role: f.role, options: f.options as Record<string, unknown>, bytes: f.bytes })), params: p.params, view: p.view, demo: false, plan: p.plan, excludePicks: p.excludePicks });
-    autosave();
-    setStatus(`Opened ${file.name}`);
-  } catch (err) {
-    setStatus((err as Error).message, true);
-  }
+  if (file) void openProjectFile(file);
 });
 
 async function clearLocal(): Promise<void> {

@@ -119,12 +119,13 @@ export function expectKinds(set: VectorSet, role: 'licence' | 'lines' | 'picks' 
     if (role === 'picks') {
       const k = f.properties.kind;
       if (typeof k !== 'string' || !PICK_KINDS.includes(k as PickKind)) {
-        throw new InputError(set.file, `pick ${f.index} has kind ${JSON.stringify(k)}; expected one of ${PICK_KINDS.join(', ')}`);
+        throw new InputError(set.file, `pick ${f.index} has ${k === undefined ? 'no "kind" property' : `kind ${JSON.stringify(k)?.slice(0, 40)}`}; expected one of ${PICK_KINDS.join(', ')}`);
       }
     }
     if (role === 'isochrons') {
-      const a = Number(f.properties.age_ma);
-      if (!Number.isFinite(a) || a < 0) throw new InputError(set.file, `isochron ${f.index} needs a numeric "age_ma" property`);
+      const a = f.properties.age_ma;
+      // a JSON number: "0x10" is not 16 Ma
+      if (typeof a !== 'number' || !Number.isFinite(a) || a < 0) throw new InputError(set.file, `isochron ${f.index} needs a numeric "age_ma" property (a JSON number of Ma), got ${a === undefined ? 'none' : JSON.stringify(a)?.slice(0, 30)}`);
     }
     if (want === 'polygon') polygonValid(set.file, f);
     if (want === 'line') {

@@ -6,6 +6,8 @@ import { outputFiles } from '../../src/export/outputs.js';
 import { readGeoJson } from '../../src/io/geojson-read.js';
 import { readGeoTiff } from '../../src/io/geotiff-read.js';
 import { fromBase64, parseProject, PROJECT_FORMAT, toBase64 } from '../../src/io/project.js';
+import { PARAM_SPECS } from '../../src/params.js';
+import { PLAN_SPECS } from '../../src/survey/params.js';
 import { resolveParams } from '../../src/params.js';
 import { runPipeline, type PipelineInputs } from '../../src/pipeline.js';
 import { demoBytes } from '../helpers/demo-run.js';
@@ -40,7 +42,7 @@ describe('project file', () => {
     const first = outputFiles(runPipeline(await inputsFrom(files), { params: params as never }), { version: 't', time: 'T1', tool: 'app' });
     const text = JSON.stringify({
       format: PROJECT_FORMAT, version: 1, saved: 'x', tool: 't', params, view: null,
-      inputs: Object.entries(files).map(([name, b]) => ({ name, kind: name.endsWith('.tif') ? 'grid' : 'vector', role: ROLES[name], bytes: b.length, sha256: sha(b), options: {}, data: toBase64(b) })),
+      inputs: Object.entries(files).map(([name, b]) => ({ name, kind: name.endsWith('.tif') ? 'grid' : 'vector', role: ROLES[name] === 'basement' ? 'top-basement' : ROLES[name], bytes: b.length, sha256: sha(b), options: {}, data: toBase64(b) })),
     });
     const p = parseProject(text, 'project.taperline.json');
     const reopened = Object.fromEntries(p.inputs.map((i) => [i.name, fromBase64(i.data!)]));
@@ -68,12 +70,40 @@ describe('project file', () => {
     expect(p.excludePicks).toEqual(['VX-105/onlap']);
     // an older project without them opens with none
     expect(parseProject(JSON.stringify(base), 'old.json')).toMatchObject({ plan: {}, excludePicks: [] });
-    expect(() => parseProject(JSON.stringify({ ...base, plan: [1] }), 'bad.json')).toThrow(/bad\.json: "plan" must be an object/);
-    expect(() => parseProject(JSON.stringify({ ...base, excludePicks: [3] }), 'bad.json')).toThrow(/bad\.json: "excludePicks" must be a list of pick ids/);
+    expect(() => parseProject(JSON.stringify({ ...base, plan: [1] }), 'bad.json')).toThrow(/bad\.json: field "plan" must be an object/);
+    expect(() => parseProject(JSON.stringify({ ...base, excludePicks: [3] }), 'bad.json')).toThrow(/bad\.json: field "excludePicks" must be a list of pick ids/);
   });
 
   it('refuses what is not a project, naming the file', () => {
     expect(() => parseProject('{"hello": 1}', 'notes.json')).toThrow(/notes\.json: is not a Taperline project file/);
     expect(() => parseProject('nope', 'x.json')).toThrow(/x\.json: is not a project file/);
+  });
+
+  it('validates every field against its schema, naming the field (regression: view.layer "nope" broke every reload)', () => {
+    const input = { name: 'moho.tif', kind: 'grid', role: 'moho', bytes: 3, sha256: 'a'.repeat(64), options: { units: 'km' }, data: 'AAAA' };
+    const base = { format: PROJECT_FORMAT, version: 1, saved: 'x', tool: 't', params: { tc0: 32000 }, plan: {}, view: { center: [10, -35], zoom: 6, layer: 'domains', opacity: 0.8, visible: { picks: true } }, inputs: [input] };
+    const schema = { paramKeys: PARAM_SPECS.map((s) => s.key), planKeys: PLAN_SPECS.map((s) => s.key), layers: ['domains', 'crustal-thickness'] };
+    expect(parseProject(JSON.stringify(base), 'ok.json', schema).inputs[0].data).toBe('AAAA');
+    const cases: [string, (p: typeof base) => unknown, RegExp][] = [
+      ['an unknown map layer', (p) => ({ ...p, view: { ...p.view, layer: 'nope' } }), /field "view\.layer" must name a map layer/],
+      ['a zoom that is text', (p) => ({ ...p, view: { ...p.view, zoom: '6' } }), /field "view\.zoom" must be a number/],
+      ['a centre off the globe', (p) => ({ ...p, view: { ...p.view, center: [10, 95] } }), /field "view\.center"/],
+      ['an opacity above 1', (p) => ({ ...p, view: { ...p.view, opacity: 3 } }), /field "view\.opacity"/],
+      ['visibility that is not true/false', (p) => ({ ...p, view: { ...p.view, visible: { picks: 'yes' } } }), /field "view\.visible"/],
+      ['a misspelt parameter', (p) => ({ ...p, params: { tc00: 32000 } }), /field "params\.tc00" is not a known key — did you mean "tc0"\?/],
+      ['a parameter that is an object', (p) => ({ ...p, params: { tc0: { a: 1 } } }), /field "params\.tc0" must be a number/],
+      ['a grid with a vector role', (p) => ({ ...p, inputs: [{ ...input, role: 'licence' }] }), /field "inputs\[0\]\.role" must be one of top-basement, moho, seabed, none/],
+      ['a size that is text', (p) => ({ ...p, inputs: [{ ...input, bytes: '3' }] }), /field "inputs\[0\]\.bytes"/],
+      ['a checksum that is not hex', (p) => ({ ...p, inputs: [{ ...input, sha256: 'zz' }] }), /field "inputs\[0\]\.sha256"/],
+      ['an impossible unit', (p) => ({ ...p, inputs: [{ ...input, options: { units: 'furlong' } }] }), /field "inputs\[0\]\.options\.units" has an impossible value/],
+      ['an unknown reader option', (p) => ({ ...p, inputs: [{ ...input, options: { colour: 'red' } }] }), /field "inputs\[0\]\.options\.colour" is not a reader option/],
+      ['bundled bytes that are not base64', (p) => ({ ...p, inputs: [{ ...input, data: '<html>' }] }), /field "inputs\[0\]\.data" must be base64/],
+      ['bundled bytes of the wrong length', (p) => ({ ...p, inputs: [{ ...input, data: 'AAAAAAAA' }] }), /field "inputs\[0\]\.data" holds 6 bytes where "bytes" says 3/],
+      ['a version from the future', (p) => ({ ...p, version: 9 }), /has project version 9/],
+      ['a version that is text', (p) => ({ ...p, version: '1' }), /has project version "1"/],
+    ];
+    for (const [what, mutate, message] of cases) {
+      expect(() => parseProject(JSON.stringify(mutate(base)), 'p.json', schema), what).toThrow(message);
+    }
   });
 });

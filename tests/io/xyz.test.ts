@@ -54,4 +54,22 @@ describe('XYZ reader', () => {
     const text = xyz() + '1000 5000 999\n';
     expect(() => readXyz(text, 'dup.xyz', { crs: 'EPSG:32709' })).toThrow(/dup\.xyz: line 21 repeats the node/);
   });
+  it('reads only plain decimal numbers: hexadecimal, "Infinity" and empty fields are not numbers', () => {
+    for (const bad of ['0x1F', 'Infinity', '1e400', '12abc']) {
+      const text = xyz({ mutate: (l) => (l[3] = `1750 5750 ${bad}`) });
+      expect(() => readXyz(text, 'bad.xyz', { crs: 'EPSG:32709' }), bad).toThrow(/bad\.xyz: line 4 is not "x y z"/);
+    }
+  });
+  it('refuses a lattice its points barely fill, naming the spacing found, before allocating it (regression: 53 bytes read as 14 142 × 14 142)', () => {
+    // four corners of a 100 km square and one point 1 m from a corner: a 1 m lattice of 10¹⁰ cells
+    const text = '0 0 1\n100000 0 1\n0 100000 1\n100000 100000 1\n1 0 1\n';
+    expect(() => readXyz(text, 'stray.xyz', { crs: 'EPSG:32709' })).toThrow(/^stray\.xyz: its 5 points fill .* of the 100001 × 2 lattice their spacing \(1 × 100000\)/);
+  });
+  it('checks the CRS before reading any point', () => {
+    expect(() => readXyz('garbage that is not xyz', 'g.xyz')).toThrow(/g\.xyz: XYZ text carries no CRS/);
+    expect(() => readXyz(xyz(), 'g.xyz', { crs: 'EPSG:99999999' })).toThrow(/^g\.xyz: /);
+  });
+  it('refuses more points than the read budget allows', () => {
+    expect(() => readXyz(xyz(), 'big.xyz', { crs: 'EPSG:32709', readBudgetMB: 1 })).toThrow(/big\.xyz: holds more points than the read budget of 1 MB/);
+  });
 });

@@ -63,6 +63,7 @@ export function readLayout(ifd: Ifd, budgetMB = DEFAULT_READ_BUDGET_MB): TiffLay
   const samplesPerPixel = number(ifd, 277, 1);
   if (!Number.isInteger(samplesPerPixel) || samplesPerPixel < 1 || samplesPerPixel > 1024) throw new InputError(file, `declares ${samplesPerPixel} samples per pixel: damaged`);
   const bits = numbers(ifd, 258) ?? Float64Array.of(1);
+  if (bits.length === 0) throw new InputError(file, 'has an empty BitsPerSample tag: damaged');
   const bitsPerSample = bits[0];
   for (const b of bits) if (b !== bitsPerSample) throw new InputError(file, 'has bands of different bit depths: re-save it with one sample type (gdal_translate -ot Float32)');
   const format = number(ifd, 339, 1);
