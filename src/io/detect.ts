@@ -50,6 +50,8 @@ export interface DepthReport {
 /** Sentinels commonly used for no data in depth grids (masked wherever they appear exactly). */
 export const SENTINELS: readonly number[] = [-9999, -99999, 1e30, 1.70141e38, 3.4028e38, -3.4028e38];
 const F32_MAX_NEAR = 3.4028e38;
+/** Key in the no-data report for values a Float32 grid cannot hold. */
+export const OUT_OF_RANGE = 'beyond Float32 range';
 
 /** Split metadata text into lower-case words (underscores, dots and digits-to-letters split too). */
 export function words(text: string): string[] {
@@ -154,7 +156,13 @@ export function toDepthMetres(
       total++;
       values[k] = NaN;
     } else {
-      values[k] = v * scale0 + offset0;
+      const x = Math.fround(v * scale0 + offset0);
+      if (x === Infinity || x === -Infinity) {
+        // beyond what a Float32 grid holds (a damaged value or scale): no data, counted
+        masked[OUT_OF_RANGE] = (masked[OUT_OF_RANGE] ?? 0) + 1;
+        total++;
+        values[k] = NaN;
+      } else values[k] = x;
     }
   }
   if (total === n) throw new InputError(file, 'holds no data at all (every cell is a no-data value)');
@@ -201,8 +209,17 @@ export function toDepthMetres(
   let min = Infinity;
   let max = -Infinity;
   if (scale !== 1) {
-    for (let k = 0; k < n; k++) values[k] = values[k] * scale;
+    for (let k = 0; k < n; k++) {
+      values[k] = values[k] * scale;
+      const x = values[k];
+      if (x === Infinity || x === -Infinity) {
+        values[k] = NaN;
+        masked[OUT_OF_RANGE] = (masked[OUT_OF_RANGE] ?? 0) + 1;
+        total++;
+      }
+    }
   }
+  if (masked[OUT_OF_RANGE]) warnings.push(`${masked[OUT_OF_RANGE]} values beyond the Float32 range once converted to metres: no data there (damaged values?)`);
   for (let k = 0; k < n; k++) {
     const v = values[k];
     if (v < min) min = v;
