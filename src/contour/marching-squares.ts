@@ -6,7 +6,7 @@
  * - Isolines: cells with any NaN corner produce nothing, so lines stop at no data and at the grid
  *   edge and never close around a hole.
  * - Filled regions: NaN and the outside of the grid count as below, so every ring closes; rings run
- *   through the outermost valid samples there.
+ *   just inside the outermost valid samples there (FILL_INSET), and are made simple rings.
  * - Saddle cells are resolved with the asymptotic decider (Nielson & Hamann 1991): the bilinear saddle
  *   value B* = (f00·f11 − f10·f01)/(f00 + f11 − f10 − f01) decides whether the above corners join.
  * - Crossing points are computed once per cell edge in a canonical direction, so neighbouring cells
@@ -14,6 +14,8 @@
  *   y-down index space) and stitched through a hash of edge ids: linear in the number of segments.
  * Output: flat positions [x0, y0, x1, y1, ...] with start indices, and a closed flag per line.
  */
+
+import { simpleRings, type Position } from '../geometry/rings.js';
 
 export interface Lines {
   /** Flat vertex coordinates in index space (or map space once transformed). */
@@ -30,13 +32,22 @@ export interface GridLike {
   readonly ny: number;
 }
 
+/**
+ * Filled rings never pass exactly through a sample: a choice of 1/1000 of a cell, far below any map
+ * scale yet above 7-decimal rounding of exported coordinates. Without it a sample exactly at the
+ * level, or a finite sample beside no data, puts crossings of several edges — of one ring or of a
+ * hole and its shell — on one point: rings that touch, and polygon interiors cut apart (invalid per
+ * GEOS). Isolines keep exact crossings (their tests check the interpolation to rounding).
+ */
+export const FILL_INSET = 1e-3;
+
 /** Interpolation parameter of the level crossing between values p and q (0 at p, 1 at q). */
-function crossT(p: number, q: number, level: number): number {
+function crossT(p: number, q: number, level: number, inset: number): number {
   const fp = Number.isFinite(p);
   const fq = Number.isFinite(q);
-  if (fp && fq) return (level - p) / (q - p);
-  if (!fp && !fq) return 0.5;
-  return fp ? 0 : 1; // the ring runs through the finite sample
+  // with one side no data (filling), the ring runs (just inside) the finite sample
+  const t = fp && fq ? (level - p) / (q - p) : !fp && !fq ? 0.5 : fp ? 0 : 1;
+  return t < inset ? inset : t > 1 - inset ? 1 - inset : t;
 }
 
 interface Segments {
@@ -54,6 +65,7 @@ export function traceLevel(grid: GridLike, level: number, fill = false): Lines {
   const v = grid.values;
   // For filling, work on a virtual grid padded by one sample of −∞ on every side.
   const pad = fill ? 1 : 0;
+  const inset = fill ? FILL_INSET : 0;
   const W = nx + 2 * pad;
   const H = ny + 2 * pad;
   const at = (i: number, j: number): number => {
@@ -87,19 +99,19 @@ export function traceLevel(grid: GridLike, level: number, fill = false): Lines {
       // Walk the cell boundary clockwise on screen: top (tl→tr), right (tr→br), bottom (br→bl), left (bl→tl).
       let n = 0;
       if (A !== B) {
-        const t = crossT(a, b, level);
+        const t = crossT(a, b, level, inset);
         cx[n] = i + t; cy[n] = j; cid[n] = hId(i, j); ctype[n] = A ? 1 : 0; n++;
       }
       if (B !== C) {
-        const t = crossT(b, c, level);
+        const t = crossT(b, c, level, inset);
         cx[n] = i + 1; cy[n] = j + t; cid[n] = vId(i + 1, j); ctype[n] = B ? 1 : 0; n++;
       }
       if (C !== D) {
-        const t = crossT(d, c, level); // canonical direction: left to right
+        const t = crossT(d, c, level, inset); // canonical direction: left to right
         cx[n] = i + t; cy[n] = j + 1; cid[n] = hId(i, j + 1); ctype[n] = C ? 1 : 0; n++;
       }
       if (D !== A) {
-        const t = crossT(a, d, level); // canonical direction: top to bottom
+        const t = crossT(a, d, level, inset); // canonical direction: top to bottom
         cx[n] = i; cy[n] = j + t; cid[n] = vId(i, j); ctype[n] = D ? 1 : 0; n++;
       }
       if (n === 2) {
@@ -128,7 +140,11 @@ function push(s: Segments, from: number, to: number, x1: number, y1: number, x2:
   s.pts.push(x1, y1, x2, y2);
 }
 
-/** Join oriented segments end to start through a hash of edge ids (linear time). */
+/**
+ * Join oriented segments end to start through a hash of edge ids (linear time), then clean each
+ * line: repeated positions (a sample exactly at the level puts two crossings on one point) are
+ * dropped, a line whose ends meet is closed, and filled rings are made simple (src/geometry/rings.ts).
+ */
 function stitch(s: Segments, pad: number): Lines {
   const m = s.from.length;
   const byFrom = new Map<number, number>();
@@ -141,6 +157,11 @@ function stitch(s: Segments, pad: number): Lines {
   const out: number[] = [];
   const starts: number[] = [];
   const closed: number[] = [];
+  const emit = (line: Position[], isClosed: boolean) => {
+    starts.push(out.length / 2);
+    for (const [x, y] of line) out.push(x, y);
+    closed.push(isClosed ? 1 : 0);
+  };
   for (let k0 = 0; k0 < m; k0++) {
     if (used[k0]) continue;
     // Walk backwards to the start of an open line (or all the way round a ring).
@@ -150,17 +171,21 @@ function stitch(s: Segments, pad: number): Lines {
       if (prev === undefined || prev === k0 || used[prev]) break;
       first = prev;
     }
-    starts.push(out.length / 2);
-    out.push(s.pts[4 * first] - pad, s.pts[4 * first + 1] - pad);
+    const line: Position[] = [[s.pts[4 * first] - pad, s.pts[4 * first + 1] - pad]];
     let k = first;
     for (;;) {
       used[k] = 1;
-      out.push(s.pts[4 * k + 2] - pad, s.pts[4 * k + 3] - pad);
+      const p: Position = [s.pts[4 * k + 2] - pad, s.pts[4 * k + 3] - pad];
+      const last = line[line.length - 1];
+      if (p[0] !== last[0] || p[1] !== last[1]) line.push(p);
       const next = byFrom.get(s.to[k]);
       if (next === undefined || used[next]) break;
       k = next;
     }
-    closed.push(s.to[k] === s.from[first] ? 1 : 0);
+    const ends = line.length > 2 && line[0][0] === line[line.length - 1][0] && line[0][1] === line[line.length - 1][1];
+    if (pad > 0) {
+      for (const r of simpleRings(line)) emit(r, true);
+    } else if (line.length >= 2) emit(line, ends);
   }
   return { positions: Float64Array.from(out), starts: Uint32Array.from(starts), closed: Uint8Array.from(closed) };
 }

@@ -2,9 +2,12 @@
  * Raster → polygons, the way GIS tools vectorise class rasters: each cell is a square around its
  * sample, and the polygons follow cell edges, so areas equal cell counts × cell area exactly and
  * neighbouring classes share their borders vertex for vertex. Cells touching only at a corner become
- * separate polygons. Collinear vertices are removed. Coordinates are in index space (cell (i, j)
+ * separate polygons; a ring that would pass one corner twice is split there (src/geometry/rings.ts),
+ * so every ring is simple and valid (OGC). Collinear vertices are removed. Coordinates are in index space (cell (i, j)
  * spans i ± 0.5, j ± 0.5).
  */
+
+import { besideFirstEdge, simpleRings } from '../geometry/rings.js';
 
 export type Ring = [number, number][];
 
@@ -62,7 +65,8 @@ export function polygonize(keys: ArrayLike<number>, nx: number, ny: number, skip
           if (id === start && dir === d0) break;
         }
         ring.push([ring[0][0], ring[0][1]]);
-        rings.push(dropCollinear(ring));
+        // a ring that passes a corner twice (a pocket pinched off diagonally) is split there
+        for (const loop of simpleRings(ring)) rings.push(dropCollinear(loop));
       }
     }
     // Outer rings run clockwise on screen (positive shoelace in y-down numbers); holes the other way.
@@ -70,11 +74,7 @@ export function polygonize(keys: ArrayLike<number>, nx: number, ny: number, skip
     outers.sort((a, b) => a.area - b.area);
     for (const h of rings.filter((r) => shoelace(r) < 0)) {
       // A point just right of the hole's first edge lies in the class region that the hole cuts.
-      const [x0, y0] = h[0];
-      const [x1, y1] = h[1];
-      const len = Math.hypot(x1 - x0, y1 - y0);
-      const px = (x0 + x1) / 2 - ((y1 - y0) / len) * 0.25;
-      const py = (y0 + y1) / 2 + ((x1 - x0) / len) * 0.25;
+      const [px, py] = besideFirstEdge(h, 0.25);
       const host = outers.find((o) => inRing(o.ring, px, py));
       if (host) host.holes.push(h);
     }
