@@ -2,6 +2,7 @@
 /** The `taperline` command: a thin shell over the core pipeline (src/pipeline.ts). */
 
 import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { writeFile } from 'node:fs/promises';
 import { dirname, join, resolve, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { InputError } from '../io/errors.js';
@@ -243,7 +244,7 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
     if (err instanceof ParamError || (err instanceof Error && /^plan parameter/.test(err.message))) throw new InputError(paramsPath ?? 'parameters', err.message);
     throw err;
   }
-  writeAtomically(out, files);
+  await writeAtomically(out, files);
   for (const w of result.warnings) process.stderr.write(`warning: ${w}\n`);
   process.stdout.write(`wrote ${Object.keys(files).length} files to ${out}\n`);
 }
@@ -257,7 +258,7 @@ const MANIFEST = '.taperline-outputs';
  * are removed too; a signal mid-write removes this run's temporary folder before exiting. An output
  * folder that cannot be written gives one line naming it.
  */
-function writeAtomically(out: string, files: Record<string, Uint8Array>): void {
+async function writeAtomically(out: string, files: Record<string, Uint8Array>): Promise<void> {
   const tmp = join(out, `.taperline-tmp-${process.pid}`);
   const onSignal = (sig: NodeJS.Signals) => {
     rmSync(tmp, { recursive: true, force: true });
@@ -269,10 +270,14 @@ function writeAtomically(out: string, files: Record<string, Uint8Array>): void {
   try {
     makeDir(out);
     for (const name of readdirSync(out)) if (name.startsWith('.taperline-tmp-')) rmSync(join(out, name), { recursive: true, force: true });
+    // written asynchronously, so a signal arriving meanwhile is handled (and the folder removed)
     for (const [rel, bytes] of Object.entries(files)) {
       mkdirSync(dirname(join(tmp, rel)), { recursive: true });
-      writeFileSync(join(tmp, rel), bytes);
+      await writeFile(join(tmp, rel), bytes);
     }
+    // tests of interrupted writes hold the run here, between writing and moving into place
+    const pause = Number(process.env.TAPERLINE_TEST_WRITE_PAUSE_MS ?? 0);
+    if (pause > 0) await new Promise((resolve) => setTimeout(resolve, pause));
     const previous = existsSync(join(out, MANIFEST)) ? readFileSync(join(out, MANIFEST), 'utf8').split('\n').filter(Boolean) : [];
     for (const rel of Object.keys(files)) {
       mkdirSync(dirname(join(out, rel)), { recursive: true });

@@ -1,4 +1,5 @@
 // The taperline command where users meet it: help, exit codes, one-line messages, no half-written output.
+import { spawn } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -24,6 +25,7 @@ beforeAll(() => {
   }
   writeFileSync(f('huge.tif'), big);
   writeFileSync(f('bad-params.json'), JSON.stringify({ rhoMantle: 2500 }));
+  writeFileSync(f('other-params.json'), JSON.stringify({ taperThreshold: 3000 }));
   writeFileSync(f('bad-plan.json'), JSON.stringify({ spacingKm: 'wide' }));
   // a bow-tie licence: its edges cross at (-128.5, -35.0)
   const bow = [[-129, -35.5], [-128, -34.5], [-128, -35.5], [-129, -34.5], [-129, -35.5]];
@@ -120,6 +122,30 @@ describe('nothing overwritten, nothing stale', () => {
     expect(readFileSync(join(out, 'my-notes.txt'), 'utf8')).toBe('mine');
     expect(existsSync(join(out, '.taperline-tmp-999999'))).toBe(false);
   });
+
+  for (const signal of ['SIGTERM', 'SIGINT', 'SIGKILL'] as const) {
+    it(`a run stopped by ${signal} while writing leaves the previous outputs whole${signal === 'SIGKILL' ? '; the next run clears what it left' : ' and no temporary folder'}`, async () => {
+      const out = f(`killed-${signal}`);
+      expect(synth(['--licence', f('licence.geojson')], out).status).toBe(0);
+      const before = Object.fromEntries(readdirSync(out).filter((n) => n.endsWith('.geojson') || n.endsWith('.json')).map((n) => [n, readFileSync(join(out, n))]));
+      const child = spawn(process.execPath, ['--import', 'tsx', 'src/cli/main.ts', 'synth', '--top-basement', f('top-basement.tif'), '--moho', f('moho.tif'), '--out', out, '--params', f('other-params.json')], {
+        env: { ...process.env, TAPERLINE_TEST_WRITE_PAUSE_MS: '20000' },
+        stdio: ['ignore', 'pipe', 'pipe'],
+      });
+      const tmpDir = () => readdirSync(out).find((n) => n.startsWith('.taperline-tmp-'));
+      for (let k = 0; k < 600 && !tmpDir(); k++) await new Promise((r) => setTimeout(r, 100));
+      expect(tmpDir()).toBeDefined();
+      const code = new Promise<number | null>((resolve) => child.on('exit', (c) => resolve(c)));
+      child.kill(signal);
+      const exit = await code;
+      for (const [n, bytes] of Object.entries(before)) expect(readFileSync(join(out, n)).equals(bytes), n).toBe(true);
+      if (signal === 'SIGKILL') {
+        expect(tmpDir()).toBeDefined();
+        expect(synth([], out).status).toBe(0);
+      } else expect(exit).toBe(130);
+      expect(tmpDir()).toBeUndefined();
+    }, 120_000);
+  }
 
   it('an output folder that cannot be written gives one line naming it', () => {
     const r = synth([], '/proc/taperline-out');
