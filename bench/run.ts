@@ -3,7 +3,12 @@
  * Not a test: figures depend on the machine; the README records the ones measured.
  */
 
-import { writeArrayBuffer } from 'geotiff';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fromArrayBuffer, writeArrayBuffer } from 'geotiff';
+import { readGeoTiff } from '../src/io/geotiff-read.js';
 import { crsFromEpsg } from '../src/crs/registry.js';
 import { derive } from '../src/derive/derive.js';
 import { writeGeoTiff } from '../src/io/geotiff-write.js';
@@ -86,7 +91,51 @@ console.log(`Taperline benchmarks (node ${process.version}); grid ${size} × ${s
   rows.push(['GeoTIFF write 2000² Float32 (ours)', `${msOurs.toFixed(0)} ms, ${(ours.length / 2 ** 20).toFixed(1)} MB`, `geotiff.js writeArrayBuffer: ${msRef.toFixed(0)} ms`]);
 }
 
-// 3. The whole pipeline on the invented demo (600 × 400), as the app and `taperline demo` run it.
+// 3. GeoTIFF reading, 2048 × 2048 Float32: ours beside geotiff.js and (when present) GDAL itself,
+// on files GDAL wrote (uncompressed strips; DEFLATE + floating-point predictor, 256 tiles).
+{
+  const n = 2048;
+  const dir = mkdtempSync(join(tmpdir(), 'taperline-bench-'));
+  const v = new Float32Array(n * n).map((_, k) => 1000 + (k % n) * 3 + Math.sin(k * 1e-3));
+  const geom = { nx: n, ny: n, x0: 500_000, y0: 7_000_000, dx: 100, dy: -100, registration: 'area' as const, crs: crsFromEpsg(32709) };
+  writeFileSync(join(dir, 'src.tif'), writeGeoTiff(geom, v, { noData: 'nan', level: 0 }));
+  const gdalHere = (() => {
+    try {
+      execFileSync('gdal_translate', ['--version'], { stdio: 'ignore' });
+      return true;
+    } catch {
+      return false;
+    }
+  })();
+  const layouts: [string, string[]][] = [['uncompressed strips', []], ['DEFLATE + predictor 3, tiled', ['-co', 'COMPRESS=DEFLATE', '-co', 'PREDICTOR=3', '-co', 'TILED=YES']]];
+  for (const [label, co] of layouts) {
+    const file = join(dir, `${label.replace(/\W+/g, '-')}.tif`);
+    if (gdalHere) execFileSync('gdal_translate', ['-q', ...co, join(dir, 'src.tif'), file]);
+    else writeFileSync(file, readFileSync(join(dir, 'src.tif')));
+    const bytes = new Uint8Array(readFileSync(file));
+    const med = async (f: () => Promise<unknown>) => {
+      const t: number[] = [];
+      for (let k = 0; k < 3; k++) {
+        const t0 = performance.now();
+        await f();
+        t.push(performance.now() - t0);
+      }
+      return t.sort((a, b) => a - b)[1];
+    };
+    const ours = await med(() => readGeoTiff(bytes, 'bench.tif', { role: 'top-basement' }));
+    const lib = await med(async () => (await (await fromArrayBuffer(bytes.slice().buffer)).getImage()).readRasters());
+    let gdal = '';
+    try {
+      const ms = execFileSync('/usr/bin/python3', ['-c', `import time\nfrom osgeo import gdal\nts=[]\nfor k in range(3):\n  t=time.time(); gdal.Open(${JSON.stringify(file)}).ReadAsArray(); ts.append(time.time()-t)\nprint(sorted(ts)[1]*1000)`], { encoding: 'utf8' });
+      gdal = `, GDAL ReadAsArray ${Number(ms).toFixed(0)} ms (×${(ours / Number(ms)).toFixed(1)})`;
+    } catch {
+      gdal = ', GDAL (python3-gdal) not found';
+    }
+    rows.push([`GeoTIFF read 2048² Float32, ${label}${gdalHere ? ' (GDAL-written)' : ''}`, `${ours.toFixed(0)} ms (incl. unit/sign detection)`, `geotiff.js readRasters ${lib.toFixed(0)} ms${gdal}`]);
+  }
+}
+
+// 4. The whole pipeline on the invented demo (600 × 400), as the app and `taperline demo` run it.
 {
   const { demoInputs } = await import('../tests/helpers/demo-run.js');
   const { runPipeline } = await import('../src/pipeline.js');

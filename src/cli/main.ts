@@ -3,6 +3,7 @@
 
 import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { writeFile } from 'node:fs/promises';
+import { DEFAULT_READ_BUDGET_MB } from '../io/tiff/layout.js';
 import { dirname, join, resolve, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { InputError } from '../io/errors.js';
@@ -61,6 +62,8 @@ boundaries from depth grids (GeoTIFF or XYZ text; metres or km, depth or elevati
   --ROLE-crs CRS             CRS for the file (EPSG code or proj4 string; XYZ text needs one,
                              otherwise the analysis grid's CRS is assumed with a warning)
   --ROLE-depth               accept a grid whose name or tags look like two-way time
+  --read-budget-mb N   memory one grid file may take while read (default ${DEFAULT_READ_BUDGET_MB}); a
+                       file declaring more is refused before anything is allocated
 
 plan: propose 2D seismic lines across the continent–ocean transition (a planning aid: marine
 surveys need permits, environmental mitigation and qualified operators). Same inputs as synth, plus
@@ -131,7 +134,7 @@ function parseArgs(argv: string[]): { command: string; flags: Map<string, string
 const GRID_ROLES = ['seabed', 'top-basement', 'moho'] as const;
 const PLAN_FLAGS = ['existing', 'spacing', 'overhang-landward', 'overhang-oceanward'];
 const KNOWN = new Set([
-  'top-basement', 'moho', 'seabed', 'licence', 'lines', 'picks', 'isochrons', 'crust', 'params', 'out', 'exclude-pick',
+  'top-basement', 'moho', 'seabed', 'licence', 'lines', 'picks', 'isochrons', 'crust', 'params', 'out', 'exclude-pick', 'read-budget-mb',
   ...GRID_ROLES.flatMap((r) => [`${r}-units`, `${r}-sign`, `${r}-nodata`, `${r}-crs`, `${r}-depth`]),
 ]);
 
@@ -161,6 +164,11 @@ function gridOptions(flags: Map<string, string | true>, role: (typeof GRID_ROLES
   const crs = str(flags, `${role}-crs`);
   if (crs) o.crs = crs;
   if (flags.get(`${role}-depth`) === true) o.zDomain = 'depth';
+  const budget = str(flags, 'read-budget-mb');
+  if (budget !== undefined) {
+    if (!/^\d+$/.test(budget) || Number(budget) < 1) throw new UsageError('--read-budget-mb must be a whole number of MB');
+    o.readBudgetMB = Number(budget);
+  }
   return o;
 }
 

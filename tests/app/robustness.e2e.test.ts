@@ -122,6 +122,17 @@ describe.skipIf(!haveChromium)('app keeps the user\'s work and runs only its own
     expect(p.requests.some((u) => u.includes('192.0.2.1'))).toBe(false);
   });
 
+  it('reads a ZSTD-compressed GeoTIFF under the policy (the decoder is WebAssembly inside the bundle)', async () => {
+    const path = new URL('../fixtures/gdal/f32_zstd_striped.tif', import.meta.url).pathname;
+    await p.page.setInputFiles('#file-input', path);
+    const card = p.page.locator('.file[data-name="f32_zstd_striped.tif"]');
+    await card.waitFor();
+    await p.page.waitForFunction(() => window.__taperline.state.files.some((f) => f.name === 'f32_zstd_striped.tif' && (f.report || f.error)), null, { timeout: 30_000 });
+    const f = await p.page.evaluate(() => window.__taperline.state.files.find((x) => x.name === 'f32_zstd_striped.tif')!);
+    expect(f.error).toBeNull();
+    expect(f.report!.nx).toBe(37);
+  });
+
   it('the preview server sends the policy as a header too', async () => {
     const res = await fetch(app.url);
     expect(res.headers.get('content-security-policy')).toMatch(/frame-ancestors 'none'/);
