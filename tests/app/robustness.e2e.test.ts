@@ -138,6 +138,21 @@ describe.skipIf(!haveChromium)('app keeps the user\'s work and runs only its own
     expect(res.headers.get('content-security-policy')).toMatch(/frame-ancestors 'none'/);
   });
 
+  it('the dev server sends the policy as a header (with its reload socket allowed)', async () => {
+    const { createServer } = await import('vite');
+    const server = await createServer({ configFile: 'vite.config.ts', logLevel: 'error', server: { port: 0, host: '127.0.0.1', hmr: false } });
+    await server.listen();
+    try {
+      const res = await fetch(server.resolvedUrls!.local[0]);
+      const csp = res.headers.get('content-security-policy') ?? '';
+      expect(csp).toMatch(/default-src 'self'/);
+      expect(csp).toMatch(/script-src 'self' 'wasm-unsafe-eval'/);
+      expect(csp).toMatch(/connect-src 'self' data: blob: ws:\/\/127\.0\.0\.1:\*/);
+    } finally {
+      await server.close();
+    }
+  });
+
   it('runs the demo with no error under the policy', () => {
     expect(p.errors.filter((e) => !/192\.0\.2\.1|Content Security Policy/.test(e))).toEqual([]);
   });
