@@ -8,27 +8,9 @@ import type { StyleSpecification } from 'maplibre-gl';
 import { feature } from 'topojson-client';
 import land50 from 'world-atlas/land-50m.json';
 
-export const COLOURS = {
-  sea: '#dfe7ee',
-  land: '#c9c3b6',
-  coast: '#8d877b',
-  graticule: '#9aa6b2',
-  licence: '#111111',
-  seismic: '#3b3b3b',
-  picks: '#ffffff',
-};
+import { BOUNDARY_STYLES, COLOURS, COT_FILL, EXCLUDED_PICK, PICK_STYLES, SUSPECT_PICK } from './map/styles.js';
 
-// Boundary styles: Okabe & Ito (2008) colour-blind-safe palette, plus distinct dash patterns, so the
-// lines stay apart without colour too.
-export const BOUNDARY_STYLES: { kind: string; label: string; colour: string; dash: number[] | null; width: number }[] = [
-  { kind: 'crustal-taper-limit', label: 'Crustal taper limit', colour: '#D55E00', dash: null, width: 3 },
-  { kind: 'oceanic-limit', label: 'Landward limit of oceanic crust', colour: '#0072B2', dash: null, width: 3 },
-  { kind: 'oldest-onlapped-crust', label: 'Oldest onlapped crust (dashed; the oceanic limit where no onlap picks)', colour: '#0072B2', dash: [3, 1.5], width: 3 },
-  { kind: 'necking-line', label: 'Necking line (0.8 · tc0)', colour: '#000000', dash: [0.6, 1.4], width: 2.5 },
-  { kind: 'coupling-line', label: 'Coupling line (10 km crust)', colour: '#CC79A7', dash: [4, 1.5, 0.8, 1.5], width: 2.5 },
-];
-export const COT_FILL = '#E69F00';
-export const SUSPECT_PICK = '#e63946';
+export { BOUNDARY_STYLES, COLOURS, COT_FILL, PICK_STYLES, SUSPECT_PICK };
 
 export function landGeoJson(): GeoJSON.FeatureCollection {
   // topojson-client's feature() returns a FeatureCollection for a GeometryCollection object.
@@ -56,6 +38,11 @@ export function graticule(west: number, south: number, east: number, north: numb
 }
 
 const empty: GeoJSON.FeatureCollection = { type: 'FeatureCollection', features: [] };
+
+/** A MapLibre match expression on the pick's kind for one PICK_STYLES property. */
+function byKind(prop: 'fill' | 'stroke' | 'strokeWidth'): unknown[] {
+  return ['match', ['get', 'kind'], ...Object.entries(PICK_STYLES).flatMap(([k, s]) => [k, s[prop]]), prop === 'strokeWidth' ? 1.5 : prop === 'fill' ? COLOURS.picks : '#000'];
+}
 
 export function baseStyle(): StyleSpecification {
   const src = (data: GeoJSON.FeatureCollection = empty) => ({ type: 'geojson' as const, data });
@@ -86,9 +73,12 @@ export function baseStyle(): StyleSpecification {
         type: 'fill',
         source: 'boundaries',
         filter: ['==', ['get', 'kind'], 'cot-zone'],
-        paint: { 'fill-color': COT_FILL, 'fill-opacity': 0.22, 'fill-outline-color': COT_FILL },
+        paint: { 'fill-color': COT_FILL, 'fill-opacity': 0.3 },
       },
-      { id: 'isochrons', type: 'line', source: 'isochrons', paint: { 'line-color': '#5e3c99', 'line-width': 1.5, 'line-dasharray': [1, 2] } },
+      { id: 'cot-outline', type: 'line', source: 'boundaries', filter: ['==', ['get', 'kind'], 'cot-zone'], paint: { 'line-color': COT_FILL, 'line-width': 1.5 } },
+      // a white casing keeps the isochrons visible over every raster ramp (dark and light ends alike)
+      { id: 'isochrons-casing', type: 'line', source: 'isochrons', paint: { 'line-color': '#ffffff', 'line-width': 4, 'line-opacity': 0.9 } },
+      { id: 'isochrons', type: 'line', source: 'isochrons', paint: { 'line-color': COLOURS.isochron, 'line-width': 2, 'line-dasharray': [1, 1.5] } },
       { id: 'seismic', type: 'line', source: 'seismic', paint: { 'line-color': COLOURS.seismic, 'line-width': 1.6, 'line-dasharray': [1, 0] } },
       { id: 'licence', type: 'line', source: 'licence', paint: { 'line-color': COLOURS.licence, 'line-width': 2, 'line-dasharray': [5, 2] } },
       // a pale casing under every boundary keeps it readable over dark and light rasters alike
@@ -122,14 +112,14 @@ export function baseStyle(): StyleSpecification {
           ...(s.dash ? { 'line-dasharray': s.dash } : {}),
         },
       })),
-      { id: 'gaps', type: 'line', source: 'gaps', paint: { 'line-color': '#F0E442', 'line-width': 10, 'line-opacity': 0.75 } },
+      { id: 'gaps', type: 'line', source: 'gaps', paint: { 'line-color': COLOURS.gap, 'line-width': 10, 'line-opacity': 0.75 } },
       { id: 'midline', type: 'line', source: 'midline', paint: { 'line-color': '#404040', 'line-width': 1.2, 'line-dasharray': [2, 2] } },
       {
         id: 'proposals',
         type: 'line',
         source: 'proposals',
         paint: {
-          'line-color': ['case', ['==', ['get', 'kind'], 'dip'], '#009E73', '#56B4E9'] as never,
+          'line-color': ['case', ['==', ['get', 'kind'], 'dip'], COLOURS.dip, COLOURS.strike] as never,
           'line-width': ['case', ['==', ['get', 'kind'], 'dip'], 3, 2.5] as never,
         },
       },
@@ -141,10 +131,10 @@ export function baseStyle(): StyleSpecification {
         source: 'picks',
         paint: {
           'circle-radius': ['case', ['==', ['get', 'suspect'], true], 7, 5] as never,
-          // excluded: grey; suspect: red; otherwise white
-          'circle-color': ['case', ['==', ['get', 'excluded'], true], '#9e9e9e', ['==', ['get', 'suspect'], true], SUSPECT_PICK, COLOURS.picks] as never,
-          'circle-stroke-color': '#000',
-          'circle-stroke-width': 1.5,
+          // excluded: grey; suspect: red; otherwise the kind's own symbol (PICK_STYLES)
+          'circle-color': ['case', ['==', ['get', 'excluded'], true], EXCLUDED_PICK, ['==', ['get', 'suspect'], true], SUSPECT_PICK, byKind('fill')] as never,
+          'circle-stroke-color': byKind('stroke') as never,
+          'circle-stroke-width': byKind('strokeWidth') as never,
         },
       },
     ],

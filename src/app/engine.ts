@@ -1,11 +1,12 @@
 /**
- * Main-thread side of the worker: loads, runs, exports; cancel = terminate and restart the worker,
- * then send the loaded files again (the app keeps their bytes), so nothing the user loaded is lost.
+ * Main-thread side of the worker: one `request` per kind of the typed protocol (messages.ts), each
+ * paired with its reply by a unique id. Cancel = terminate and restart the worker, then send the
+ * loaded files again (the app keeps their bytes), so nothing the user loaded is lost.
  */
 
 import type { GridReadOptions } from '../io/geotiff-read.js';
 import type { GridReadReport } from '../io/report.js';
-import type { DisplayResult, FromWorker, GridRole, PlanData, SectionData, ToWorker, VectorRole } from './messages.js';
+import type { DisplayResult, FromWorker, GridRole, Kind, PlanData, Requests, Response, SectionData, ToWorker, VectorRole } from './messages.js';
 
 export interface LoadedFile {
   readonly id: string;
@@ -17,17 +18,20 @@ export interface LoadedFile {
   report: GridReadReport | null;
   features?: number;
   warnings?: string[];
+  /** Part of the built-in invented demo. */
+  demo?: boolean;
+  /** Vector files as the map shows them (WGS 84), from the reader. */
+  display?: unknown;
   error: string | null;
 }
 
-type Pending = { resolve: (v: never) => void; reject: (e: Error) => void };
+type Pending = { resolve: (v: unknown) => void; reject: (e: Error) => void; kind: Kind; onProgress?: (stage: string, fraction: number) => void };
 
 export class Engine {
   private worker!: Worker;
-  private pending = new Map<string, Pending>();
-  private runId = 0;
-  private requestId = 0;
-  onProgress: (stage: string, fraction: number) => void = () => {};
+  private pending = new Map<number, Pending>();
+  private nextId = 0;
+  private lastRun = 0;
 
   constructor(private readonly files: () => LoadedFile[]) {
     this.start();
@@ -39,69 +43,44 @@ export class Engine {
   }
 
   private receive(m: FromWorker): void {
-    const settle = (key: string, ok: boolean, value: unknown) => {
-      const p = this.pending.get(key);
-      if (!p) return;
-      this.pending.delete(key);
-      if (ok) p.resolve(value as never);
-      else p.reject(new Error(String(value)));
-    };
-    switch (m.type) {
-      case 'loaded':
-        settle(`load:${m.id}`, true, m);
-        break;
-      case 'load-error':
-        settle(`load:${m.id}`, false, m.message);
-        break;
-      case 'demo':
-        settle('demo', true, m.files);
-        break;
-      case 'progress':
-        if (m.runId === this.runId) this.onProgress(m.stage, m.fraction);
-        break;
-      case 'result':
-        settle(`run:${m.runId}`, true, m.result);
-        break;
-      case 'run-error':
-        settle(`run:${m.runId}`, false, m.message);
-        break;
-      case 'exported':
-        settle(`export:${m.requestId}`, true, m.files);
-        break;
-      case 'section-result':
-        settle(`section:${m.requestId}`, m.section !== null, m.section ?? m.error);
-        break;
-      case 'plan-result':
-        settle(`plan:${m.requestId}`, m.plan !== null, m.plan ?? m.error);
-        break;
+    const p = this.pending.get(m.id);
+    if (!p) return;
+    if ('progress' in m) {
+      p.onProgress?.(m.progress.stage, m.progress.fraction);
+      return;
     }
+    this.pending.delete(m.id);
+    if (m.ok) p.resolve(m.value);
+    else p.reject(new Error(m.error));
   }
 
-  private call<T>(key: string, msg: ToWorker, transfer: Transferable[] = []): Promise<T> {
-    return new Promise<T>((resolve, reject) => {
-      this.pending.set(key, { resolve: resolve as (v: never) => void, reject });
-      this.worker.postMessage(msg, transfer);
+  /** Send one request; the reply with the same id settles it. */
+  request<K extends Kind>(kind: K, body: Requests[K]['req'], transfer: Transferable[] = [], onProgress?: Pending['onProgress']): Promise<Response<K>> {
+    const id = ++this.nextId;
+    return new Promise<Response<K>>((resolve, reject) => {
+      this.pending.set(id, { resolve: resolve as (v: unknown) => void, reject, kind, onProgress });
+      this.worker.postMessage({ id, kind, ...body } as ToWorker, transfer);
     });
   }
 
-  makeDemo(): Promise<{ name: string; bytes: ArrayBuffer }[]> {
-    return this.call('demo', { type: 'make-demo' });
+  async makeDemo(): Promise<{ name: string; bytes: ArrayBuffer }[]> {
+    return (await this.request('make-demo', {})).files;
   }
 
-  load(f: LoadedFile): Promise<{ report: GridReadReport | null; features?: number; warnings?: string[] }> {
-    const copy = f.bytes.slice(0);
+  async load(f: LoadedFile): Promise<{ report: GridReadReport | null; features?: number; warnings?: string[]; display?: unknown }> {
     if (f.kind === 'grid') {
-      return this.call(`load:${f.id}`, { type: 'load-grid', id: f.id, name: f.name, bytes: copy, options: f.options }, [copy]);
+      const copy = f.bytes.slice(0);
+      return this.request('load-grid', { fileId: f.id, name: f.name, bytes: copy, options: f.options }, [copy]);
     }
-    return this.call(`load:${f.id}`, { type: 'load-vector', id: f.id, name: f.name, text: new TextDecoder().decode(f.bytes) });
+    return { report: null, ...(await this.request('load-vector', { fileId: f.id, name: f.name, text: new TextDecoder().decode(f.bytes) })) };
   }
 
-  remove(id: string): void {
-    this.worker.postMessage({ type: 'remove', id } satisfies ToWorker);
+  remove(fileId: string): void {
+    this.worker.postMessage({ id: ++this.nextId, kind: 'remove', fileId } satisfies ToWorker);
   }
 
-  run(params: Record<string, unknown>, outlines = false, excludePicks: string[] = []): Promise<DisplayResult> {
-    const runId = ++this.runId;
+  /** Run the pipeline on the files in their roles; progress reports only for the newest run. */
+  run(params: Record<string, unknown>, outlines: boolean, excludePicks: string[], onProgress: (stage: string, fraction: number) => void): Promise<DisplayResult> {
     const grids: Partial<Record<GridRole, string>> = {};
     const vectors: Partial<Record<VectorRole, string>> = {};
     for (const f of this.files()) {
@@ -109,28 +88,26 @@ export class Engine {
       if (f.kind === 'grid') grids[f.role as GridRole] = f.id;
       else vectors[f.role as VectorRole] = f.id;
     }
-    return this.call(`run:${runId}`, { type: 'run', runId, grids, vectors, params, outlines, excludePicks });
+    const mine = ++this.lastRun;
+    return this.request('run', { grids, vectors, params, outlines, excludePicks }, [], (stage, fraction) => mine === this.lastRun && onProgress(stage, fraction));
   }
 
-  exportAll(version: string): Promise<Record<string, ArrayBuffer>> {
-    const requestId = ++this.requestId;
-    return this.call(`export:${requestId}`, { type: 'export', requestId, time: new Date().toISOString(), version });
+  async exportAll(version: string): Promise<Record<string, ArrayBuffer>> {
+    return (await this.request('export', { time: new Date().toISOString(), version })).files;
   }
 
   section(lonlat: [number, number][], title: string): Promise<SectionData> {
-    const requestId = ++this.requestId;
-    return this.call(`section:${requestId}`, { type: 'section', requestId, lonlat, title });
+    return this.request('section', { lonlat, title });
   }
 
   plan(params: Record<string, unknown>): Promise<PlanData> {
-    const requestId = ++this.requestId;
-    return this.call(`plan:${requestId}`, { type: 'plan', requestId, params });
+    return this.request('plan', { params });
   }
 
   /** Stop whatever runs: terminate the worker, start a new one and reload every file into it. */
   async cancel(): Promise<void> {
     this.worker.terminate();
-    for (const [key, p] of this.pending) p.reject(new Error(key.startsWith('run:') ? 'cancelled' : 'worker restarted'));
+    for (const p of this.pending.values()) p.reject(new Error(p.kind === 'run' ? 'cancelled' : 'worker restarted'));
     this.pending.clear();
     this.start();
     for (const f of this.files()) if (!f.error) await this.load(f).catch(() => undefined);

@@ -42,14 +42,17 @@ export interface DisplayResult {
   readonly millis: number;
 }
 
-export type ToWorker =
-  | { type: 'load-grid'; id: string; name: string; bytes: ArrayBuffer; options: GridReadOptions & { assumeCrs?: string } }
-  | { type: 'load-vector'; id: string; name: string; text: string }
-  | { type: 'remove'; id: string }
-  | { type: 'make-demo' }
-  | {
-      type: 'run';
-      runId: number;
+/**
+ * The worker protocol: one typed request → response table. Every request carries a unique id and
+ * its reply carries the same id, so two requests of one kind (a file reloaded twice in quick
+ * succession, say) can never take each other's replies. Progress messages name the run's id.
+ */
+export interface Requests {
+  'load-grid': { req: { fileId: string; name: string; bytes: ArrayBuffer; options: GridReadOptions & { assumeCrs?: string } }; res: { report: GridReadReport } };
+  'load-vector': { req: { fileId: string; name: string; text: string }; res: { features: number; warnings: string[]; display: unknown } };
+  'make-demo': { req: Record<string, never>; res: { files: { name: string; bytes: ArrayBuffer }[] } };
+  run: {
+    req: {
       grids: Partial<Record<GridRole, string>>;
       vectors: Partial<Record<VectorRole, string>>;
       params: Record<string, unknown>;
@@ -57,10 +60,19 @@ export type ToWorker =
       outlines: boolean;
       /** Ids of picks the user excluded. */
       excludePicks: string[];
-    }
-  | { type: 'export'; requestId: number; time: string; version: string }
-  | { type: 'section'; requestId: number; lonlat: [number, number][]; title: string }
-  | { type: 'plan'; requestId: number; params: Record<string, unknown> };
+    };
+    res: DisplayResult;
+  };
+  export: { req: { time: string; version: string }; res: { files: Record<string, ArrayBuffer> } };
+  section: { req: { lonlat: [number, number][]; title: string }; res: SectionData };
+  plan: { req: { params: Record<string, unknown> }; res: PlanData };
+}
+
+export type Kind = keyof Requests;
+export type Request<K extends Kind = Kind> = { [P in K]: { id: number; kind: P } & Requests[P]['req'] }[K];
+export type Response<K extends Kind> = Requests[K]['res'];
+
+export type ToWorker = Request | { id: number; kind: 'remove'; fileId: string };
 
 export interface SectionData {
   readonly title: string;
@@ -87,12 +99,6 @@ export interface PlanData {
 }
 
 export type FromWorker =
-  | { type: 'loaded'; id: string; report: GridReadReport | null; features?: number; warnings?: string[] }
-  | { type: 'load-error'; id: string; message: string }
-  | { type: 'demo'; files: { name: string; bytes: ArrayBuffer }[] }
-  | { type: 'progress'; runId: number; stage: string; fraction: number }
-  | { type: 'result'; runId: number; result: DisplayResult }
-  | { type: 'run-error'; runId: number; message: string }
-  | { type: 'exported'; requestId: number; files: Record<string, ArrayBuffer> }
-  | { type: 'section-result'; requestId: number; section: SectionData | null; error?: string }
-  | { type: 'plan-result'; requestId: number; plan: PlanData | null; error?: string };
+  | { id: number; ok: true; value: Response<Kind> }
+  | { id: number; ok: false; error: string }
+  | { id: number; progress: { stage: string; fraction: number } };

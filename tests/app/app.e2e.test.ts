@@ -8,7 +8,7 @@ import { WGS84 } from '../../src/crs/registry.js';
 import { crsFromEpsg } from '../../src/crs/registry.js';
 import { transformer } from '../../src/crs/transform.js';
 import { DOMAIN_STYLES } from '../../src/app/colour.js';
-import { countColour, openPage, pixelAt, pixels, startApp, waitReady, type App, type OpenedPage } from '../helpers/app.js';
+import { countColour, loadFiles, openPage, pixelAt, pixels, startApp, waitReady, type App, type OpenedPage } from '../helpers/app.js';
 import { rfc7946Violations } from '../helpers/rfc7946.js';
 import { GDAL_PYTHON, GDAL_SAMPLES, toolOrSkip } from '../helpers/tools.js';
 
@@ -44,10 +44,12 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
   it('shows every grid value and the domain under the cursor', async () => {
     await p.page.mouse.move(MAP.x + 300, MAP.y + 400);
     const text = await p.page.locator('#inspect').textContent();
-    expect(text).toMatch(/lon, lat/);
-    expect(text).toMatch(/EPSG:32709/);
-    expect(text).toMatch(/crustal thickness/);
-    expect(text).toMatch(/domain/);
+    expect(text).toMatch(/Position\d+\.\d{5}° S, \d+\.\d{5}° W/);
+    expect(text).toMatch(/Map position \(EPSG:32709\)/);
+    expect(text).toMatch(/Crustal thickness(\d|—)/);
+    expect(text).toMatch(/Domain/);
+    // plain words with units, no internal keys
+    expect(text).not.toMatch(/beta crust|crustal-thickness|NaN|undefined/);
   });
 
   it('a pick shows its checks on click and can be excluded and used again', async () => {
@@ -65,7 +67,8 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     await popup.waitFor({ timeout: 5000 });
     const text = (await popup.textContent())!;
     expect(text).toContain(at.id);
-    expect(text).toMatch(/crustal thickness at the pick/);
+    expect(text).toMatch(/Crustal thickness at the pick\d+(\.\d+)? km/);
+    expect(text).toMatch(/KindContinental-limit pick/);
     expect(text).toMatch(/neighbours|departure/);
     let runs = await p.page.evaluate(() => window.__taperline.runs);
     await p.page.click('#pick-exclude');
@@ -110,17 +113,17 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
   });
 
   it('loads a GeoTIFF through the file input and shows what the reader detected', async () => {
-    await p.page.setInputFiles('#file-input', 'tests/fixtures/gdal/km_units.tif');
+    await loadFiles(p.page, 'tests/fixtures/gdal/km_units.tif');
     const card = p.page.locator('.file[data-name="km_units.tif"]');
     await card.waitFor();
     await expect(card.textContent()).resolves.toMatch(/37 × 23 cells of 500\.0 m, EPSG:32709/);
-    await expect(card.textContent()).resolves.toMatch(/units km \(unit tag "km"\)/);
+    await expect(card.textContent()).resolves.toMatch(/Units km \(unit tag "km"\)/);
   });
 
   it('loads XYZ text, assumes the analysis CRS with a warning, and takes a CRS typed by the user', async () => {
     const lines = ['x y z'];
     for (let j = 0; j < 4; j++) for (let i = 0; i < 5; i++) lines.push(`${480000 + i * 1000} ${6100000 + j * 1000} ${-(2500 + 10 * i + j)}`);
-    await p.page.setInputFiles('#file-input', { name: 'extra_horizon.xyz', mimeType: 'text/plain', buffer: Buffer.from(lines.join('\n')) });
+    await loadFiles(p.page, { name: 'extra_horizon.xyz', mimeType: 'text/plain', buffer: Buffer.from(lines.join('\n')) });
     const card = p.page.locator('.file[data-name="extra_horizon.xyz"]');
     await card.locator('.report').first().waitFor();
     await expect(card.textContent()).resolves.toMatch(/5 × 4 cells of 1,000\.0 m/);
@@ -135,7 +138,7 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
   it('shows a clear error for a corrupt file and keeps everything already loaded', async () => {
     const runs = await p.page.evaluate(() => window.__taperline.runs);
     const corrupt = Buffer.concat([Buffer.from([0x49, 0x49, 42, 0, 8, 0, 0, 0]), Buffer.alloc(64, 0xee)]);
-    await p.page.setInputFiles('#file-input', { name: 'corrupt_basement.tif', mimeType: 'image/tiff', buffer: corrupt });
+    await loadFiles(p.page, { name: 'corrupt_basement.tif', mimeType: 'image/tiff', buffer: corrupt });
     const card = p.page.locator('.file[data-name="corrupt_basement.tif"]');
     await card.locator('.file-error').waitFor();
     await expect(card.locator('.file-error').textContent()).resolves.toMatch(/damaged|truncated|not a/);
@@ -192,8 +195,9 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     const popup = p.page.locator('#boundary-popup');
     await popup.waitFor({ timeout: 5000 });
     const text = await popup.textContent();
-    expect(text).toMatch(/crustal-taper-limit/);
-    expect(text).toMatch(/length km/);
+    expect(text).toMatch(/WhatCrustal taper limit/);
+    expect(text).toMatch(/Length \(geodesic\)\d+(\.\d)? km/);
+    expect(text).not.toMatch(/closed|threshold m|_/);
   });
 
   it('restores the project after a reload', async () => {

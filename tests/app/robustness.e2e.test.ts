@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { PROJECT_FORMAT, toBase64 } from '../../src/io/project.js';
-import { openPage, startApp, waitReady, type App, type OpenedPage } from '../helpers/app.js';
+import { loadFiles, openPage, startApp, waitReady, type App, type OpenedPage } from '../helpers/app.js';
 import { toolOrSkip } from '../helpers/tools.js';
 
 const haveChromium = toolOrSkip('chromium');
@@ -124,7 +124,7 @@ describe.skipIf(!haveChromium)('app keeps the user\'s work and runs only its own
 
   it('reads a ZSTD-compressed GeoTIFF under the policy (the decoder is WebAssembly inside the bundle)', async () => {
     const path = new URL('../fixtures/gdal/f32_zstd_striped.tif', import.meta.url).pathname;
-    await p.page.setInputFiles('#file-input', path);
+    await loadFiles(p.page, path);
     const card = p.page.locator('.file[data-name="f32_zstd_striped.tif"]');
     await card.waitFor();
     await p.page.waitForFunction(() => window.__taperline.state.files.some((f) => f.name === 'f32_zstd_striped.tif' && (f.report || f.error)), null, { timeout: 30_000 });

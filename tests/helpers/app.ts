@@ -74,3 +74,10 @@ export function pixelAt(png: PNG, x: number, y: number): [number, number, number
   const k = (y * png.width + x) * 4;
   return [png.data[k], png.data[k + 1], png.data[k + 2]];
 }
+
+/** Load files through the file input; while the demo is shown, answer the add-or-new question. */
+export async function loadFiles(page: Page, files: Parameters<Page['setInputFiles']>[1], answer: 'add' | 'new' = 'add'): Promise<void> {
+  const demo = await page.evaluate(() => window.__taperline.state.files.some((f) => f.demo));
+  await page.setInputFiles('#file-input', files);
+  if (demo) await page.click(`#ask-${answer}`);
+}

@@ -14,6 +14,8 @@ export interface StoredFile {
   role: string;
   options: Record<string, unknown>;
   bytes: ArrayBuffer;
+  /** Part of the built-in invented demo. */
+  demo?: boolean;
 }
 
 export interface StoredProject {

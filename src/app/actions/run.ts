@@ -1,0 +1,70 @@
+/**
+ * Runs: the pipeline in the worker whenever the inputs, parameters or excluded picks change
+ * (debounced), one at a time (a change during a run queues one more), with progress and cancel.
+ */
+
+import { num } from '../text/format.js';
+import type { Ctx } from './context.js';
+import { takeFit } from './files.js';
+
+let timer: ReturnType<typeof setTimeout> | null = null;
+let rerun = false;
+
+export function scheduleRun(ctx: Ctx): void {
+  if (timer) clearTimeout(timer);
+  timer = setTimeout(() => void run(ctx), 250);
+}
+
+export async function run(ctx: Ctx): Promise<void> {
+  const { store, engine } = ctx;
+  if (timer) clearTimeout(timer);
+  timer = null;
+  if (store.state.running) {
+    rerun = true;
+    return;
+  }
+  const files = store.state.files;
+  const ready = files.some((f) => f.role === 'top-basement' && !f.error) && files.some((f) => f.role === 'moho' && !f.error);
+  if (!ready) {
+    ctx.status('Assign a top-basement grid and a Moho grid under Data to compute.');
+    return;
+  }
+  store.update({ running: true });
+  const t0 = performance.now();
+  const showProgress = setTimeout(() => store.update({ progress: { stage: 'starting', fraction: 0 } }), 300);
+  ctx.status('Computing…');
+  try {
+    const s = store.state;
+    const result = await engine.run(s.params, s.visible.outlines, s.excludePicks, (stage, fraction) => {
+      if (store.state.progress) store.update({ progress: { stage, fraction } });
+      ctx.status(`Computing: ${stage}…`);
+    });
+    window.__taperline.runs++;
+    window.__taperline.lastMillis = performance.now() - t0;
+    window.__taperline.error = null;
+    await ctx.view.loaded;
+    const fit = takeFit() || !store.state.result;
+    store.update({ result });
+    if (fit) ctx.view.fitTo(result.geometry);
+    const n = result.summary.warnings.length;
+    store.update({ status: { text: `Done in ${num(performance.now() - t0)} ms (pipeline ${num(result.millis)} ms).`, error: false, warnings: n } });
+    ctx.view.map.once('idle', () => (window.__taperline.ready = true));
+    ctx.view.map.triggerRepaint();
+  } catch (err) {
+    const msg = (err as Error).message;
+    window.__taperline.error = msg;
+    ctx.status(msg === 'cancelled' ? 'Cancelled: the previous results stay on the map.' : `Could not compute: ${msg}`, msg !== 'cancelled');
+  } finally {
+    clearTimeout(showProgress);
+    store.update({ running: false, progress: null });
+    if (rerun) {
+      rerun = false;
+      void run(ctx);
+    }
+  }
+}
+
+export function cancelRun(ctx: Ctx): void {
+  rerun = false;
+  void ctx.engine.cancel();
+}

@@ -1,0 +1,44 @@
+/** Areas and lengths of the run (inside the licence when there is one), and its warnings. */
+
+import { DOMAIN_STYLES } from '../../domains/styles.js';
+import { clear, h } from '../dom.js';
+import type { Store } from '../state.js';
+import { num, withUnit } from '../text/format.js';
+
+const LINE_WORDS: Record<string, string> = {
+  'crustal-taper-limit': 'Crustal taper limit',
+  'oceanic-limit': 'Landward limit of oceanic crust',
+  'oldest-onlapped-crust': 'Oldest onlapped crust',
+  'necking-line': 'Necking line',
+  'coupling-line': 'Coupling line',
+};
+
+export function mountAreas(el: HTMLElement, store: Store): void {
+  const render = () => {
+    clear(el);
+    const r = store.state.result;
+    if (!r) return;
+    const s = r.summary;
+    const list = s.areasInLicence ?? s.areas;
+    el.append(h('div', { class: 'legend-title', text: s.areasInLicence ? `Inside ${s.licenceName}` : 'Whole grid' }));
+    const rows = list.filter((a) => a.code > 0).map((a) => h('tr', {}, h('th', { text: DOMAIN_STYLES.find((d) => d.code === a.code)!.name }), h('td', { text: withUnit(a.km2, 'km²') })));
+    const lengths = Object.entries(s.lengths).map(([k, v]) => h('tr', {}, h('th', { text: LINE_WORDS[k] ?? k }), h('td', { text: withUnit(v, 'km') })));
+    el.append(
+      h('table', { id: 'areas-table' }, ...rows, h('tr', {}, h('th', { text: 'Continent–ocean transition zone' }), h('td', { text: withUnit(s.cotAreaKm2, 'km²') })), ...lengths),
+      h('p', { class: 'hint', text: `Geodesic (WGS 84). Oceanward azimuth ${num(s.oceanwardAzimuth, 0)}°. Computed in ${num(r.millis)} ms.` }),
+    );
+  };
+  store.subscribe(['result'], render);
+  render();
+}
+
+export function mountWarnings(el: HTMLElement, store: Store): void {
+  const render = () => {
+    clear(el);
+    const w = store.state.result?.summary.warnings ?? [];
+    if (!w.length) el.append(h('p', { class: 'hint', text: 'None.' }));
+    for (const text of w) el.append(h('p', { class: 'warning', text }));
+  };
+  store.subscribe(['result'], render);
+  render();
+}

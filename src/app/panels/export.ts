@@ -1,0 +1,22 @@
+/** The Export panel: each output file of the run, the grids as GeoTIFF, and the map image. */
+
+import { DERIVED } from '../../derive/grids.js';
+import { h } from '../dom.js';
+import type { Actions } from '../state.js';
+import { layerLabel } from '../text/labels.js';
+
+export function mountExport(el: HTMLElement, actions: Actions): void {
+  const gridSelect = h('select', { id: 'export-grid', 'aria-label': 'Grid to export' }, h('option', { value: 'domains', text: layerLabel('domains') }), ...DERIVED.map((d) => h('option', { value: d.name, text: layerLabel(d.name) }))) as HTMLSelectElement;
+  const get = (path: string, type: string) => () => void actions.exportFile(path, type);
+  el.append(
+    h('div', { class: 'export' },
+      h('button', { id: 'export-boundaries', title: 'Boundary pieces and the COT zone, GeoJSON (WGS 84)', onclick: get('boundaries.geojson', 'application/geo+json') }, 'Boundaries (GeoJSON)'),
+      h('button', { id: 'export-lines', title: 'One feature per continuous line, GeoJSON', onclick: get('boundary-lines.geojson', 'application/geo+json') }, 'Whole lines (GeoJSON)'),
+      h('button', { id: 'export-domains', title: 'Domain polygons, GeoJSON', onclick: get('domains.geojson', 'application/geo+json') }, 'Domains (GeoJSON)'),
+      h('button', { id: 'export-gpkg', onclick: get('boundaries.gpkg', 'application/geopackage+sqlite3') }, 'GeoPackage (all layers, WGS 84 and analysis CRS)'),
+      h('button', { id: 'export-summary', onclick: get('summary.json', 'application/json') }, 'Run summary (JSON)'),
+      h('div', { class: 'row' }, gridSelect, h('button', { id: 'export-grid-btn', onclick: () => void actions.exportFile(`grids/${gridSelect.value}.tif`, 'image/tiff') }, 'GeoTIFF')),
+      h('button', { id: 'export-png', onclick: () => void actions.exportImage() }, 'Map image (PNG)'),
+    ),
+  );
+}

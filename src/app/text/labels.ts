@@ -1,0 +1,62 @@
+/** Plain-word names for what the app shows: grids, pick kinds, map layers, input roles. */
+
+import { DERIVED, type DerivedName } from '../../derive/grids.js';
+
+/** Each derived grid in words, with the unit its values are shown in. */
+export const GRID_LABELS: Record<DerivedName, string> = {
+  'water-depth': 'Water depth',
+  'sediment-thickness': 'Sediment thickness',
+  'crustal-thickness': 'Crustal thickness',
+  'beta-crust': 'Stretching factor β (from crustal thickness)',
+  gamma: 'Thinning factor γ',
+  'water-loaded-basement': 'Water-loaded basement depth (sediment removed)',
+  'predicted-water-loaded': 'Water-loaded depth predicted by McKenzie (1978)',
+  'subsidence-residual': 'Subsidence residual (observed − predicted)',
+  'beta-subsidence': 'Stretching factor β (from subsidence)',
+  'beta-ratio': 'β ratio (subsidence ÷ crustal thickness)',
+  'airy-thickness': 'Crustal thickness for Airy balance',
+  'airy-residual': 'Airy residual (observed − balanced thickness)',
+  'oceanic-age-min': 'Oceanic age, young end (indicative)',
+  'oceanic-age-max': 'Oceanic age, old end (indicative)',
+  'oceanic-depth-anomaly': 'Oceanic depth anomaly',
+};
+
+const UNIT_WORDS: Record<string, string> = { m: 'm', Ma: 'Ma', '': 'no unit' };
+
+/** A raster layer's name for the layer list and the legend title, with its unit. */
+export function layerLabel(name: string): string {
+  if (name === 'domains') return 'Margin domains (interpretation)';
+  const d = DERIVED.find((x) => x.name === name);
+  if (!d) return name;
+  return `${GRID_LABELS[d.name]} (${UNIT_WORDS[d.unit] ?? d.unit})`;
+}
+
+export const PICK_KIND_LABELS: Record<string, string> = {
+  'continental-limit': 'Continental-limit pick',
+  'oceanic-limit': 'Oceanic-limit pick',
+  onlap: 'Onlap pick',
+};
+
+/** Map overlays the user can show or hide. */
+export const OVERLAY_LABELS: Record<string, string> = {
+  boundaries: 'Boundary lines',
+  cot: 'Continent–ocean transition zone',
+  licence: 'Licence outline',
+  seismic: 'Existing seismic lines',
+  picks: 'Interpreter picks',
+  isochrons: 'Magnetic isochrons',
+  outlines: 'Domain cell outlines',
+  graticule: 'Graticule (0.5°)',
+};
+
+export const ROLE_LABELS: Record<string, string> = {
+  'top-basement': 'Top basement (depth)',
+  moho: 'Moho (depth)',
+  seabed: 'Seabed (depth)',
+  licence: 'Licence polygon',
+  lines: 'Existing seismic lines',
+  picks: 'Interpreter picks',
+  isochrons: 'Magnetic isochrons',
+  crust: 'Crust-type polygons',
+  none: 'Not used',
+};
