@@ -34,3 +34,39 @@ describe('architecture', () => {
     });
   }
 });
+
+// The app (issue: rebuilt for living in): no module over the size set here, panels that import the
+// store and their own helpers only (never another panel, the engine, the actions or the map), and
+// pure text builders that run in Node without a DOM.
+const APP = join(SRC, 'app');
+const appFiles = files(APP);
+const MAX_APP_LINES = 300;
+const PANEL_MAY_IMPORT = [/^\.\.\/state\.js$/, /^\.\.\/dom\.js$/, /^\.\.\/text\/[a-z-]+\.js$/, /^\.\.\/colour\.js$/, /^\.\.\/section-view\.js$/, /^\.\.\/\.\.\/(params|derive\/grids|domains\/styles|io\/project|survey\/params)\.js$/];
+
+describe('app structure', () => {
+  for (const f of appFiles) {
+    const rel = relative(SRC, f);
+    it(`${rel} is at most ${MAX_APP_LINES} lines`, () => {
+      expect(readFileSync(f, 'utf8').split('\n').length).toBeLessThanOrEqual(MAX_APP_LINES);
+    });
+  }
+  const panels = appFiles.filter((f) => f.includes('/app/panels/'));
+  it('has a module per panel', () => {
+    const names = panels.map((f) => f.split('/').pop()!.replace('.ts', '')).sort();
+    expect(names).toEqual(['about', 'areas', 'export', 'files', 'layers', 'legend', 'params', 'plan', 'readout', 'section']);
+  });
+  for (const f of panels) {
+    const rel = relative(SRC, f);
+    it(`${rel} imports the store and its own helpers only`, () => {
+      for (const spec of importsOf(f)) expect(PANEL_MAY_IMPORT.some((r) => r.test(spec)), `${rel} imports ${spec}`).toBe(true);
+    });
+  }
+  for (const f of appFiles.filter((x) => x.includes('/app/text/'))) {
+    const rel = relative(SRC, f);
+    it(`${rel} is pure (no DOM, no map, no worker)`, () => {
+      const text = readFileSync(f, 'utf8');
+      expect(text).not.toMatch(/\b(document|window|localStorage|fetch)\s*[.(]/);
+      for (const spec of importsOf(f)) expect(spec, `${rel} imports ${spec}`).not.toMatch(/maplibre|deck\.gl|^\.\.\/(engine|worker|dom)\.js$|^\.\.\/(actions|panels)\//);
+    });
+  }
+});

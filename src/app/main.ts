@@ -6,8 +6,6 @@
  */
 
 import 'maplibre-gl/dist/maplibre-gl.css';
-import { WGS84 } from '../crs/registry.js';
-import { transformer } from '../crs/transform.js';
 import { resolveParams } from '../params.js';
 import { loadProject, type StoredProject } from './autosave-db.js';
 import { download } from './dom.js';
@@ -17,12 +15,11 @@ import { renderMapImage } from './map-image.js';
 import { wireMap, type Drawing } from './map/interact.js';
 import { RasterLayer } from './map/raster.js';
 import { createMapView } from './map/view.js';
-import { Store, type Actions, type AppState } from './state.js';
+import { Store, type Actions } from './state.js';
 import { countOf } from './text/format.js';
 import { layerLabel } from './text/labels.js';
-import type { LegendInput } from './text/legend.js';
-import type { ReadoutInput } from './text/readout.js';
-import { aboutDialog, DEMO_NAME } from './panels/about.js';
+import { aboutDialog } from './panels/about.js';
+import { legendInput, probe, scenarioText } from './views.js';
 import { mountAreas, mountWarnings } from './panels/areas.js';
 import { mountExport } from './panels/export.js';
 import { mountFiles } from './panels/files.js';
@@ -36,7 +33,6 @@ import type { Ctx } from './actions/context.js';
 import * as files from './actions/files.js';
 import * as persist from './actions/persist.js';
 import { cancelRun, run, scheduleRun } from './actions/run.js';
-import { rampFor } from './map/raster.js';
 
 const VERSION = '0.1.0';
 const store = new Store();
@@ -142,57 +138,6 @@ const actions: Actions = {
   showWarnings: () => document.getElementById('sec-warnings')?.scrollIntoView({ block: 'start' }),
 };
 drawing = wireMap(view, store, actions, (t) => ctx.status(t));
-
-// ---------------------------------------------------------------- derived views of the state
-function scenarioText(s: AppState): string {
-  const demo = s.files.filter((f) => f.demo);
-  const own = s.files.filter((f) => !f.demo && !f.error);
-  if (demo.length && !own.length) return `${DEMO_NAME} — invented demo data, not a real place`;
-  if (demo.length) return `Invented demo data (${DEMO_NAME}) with your files: ${own.map((f) => f.name).join(', ')}`;
-  return own.length ? 'Your data (kept in this browser only)' : 'No data loaded';
-}
-
-function legendInput(s: AppState): LegendInput {
-  const r = s.result;
-  const feats = ((r?.boundaries as { features?: { properties: Record<string, unknown> }[] })?.features ?? []).map((f) => f.properties);
-  const picks = ((r?.picks as { features?: { properties: Record<string, unknown> }[] })?.features ?? []).map((f) => f.properties);
-  const has = (role: string) => s.files.some((f) => f.role === role && !f.error && (f.features ?? 0) > 0);
-  return {
-    layer: s.layer,
-    ramp: r && s.layer !== 'domains' && r.grids[s.layer] ? rampFor(s.layer, r.grids[s.layer]) : null,
-    placedBy: r?.summary.placedBy ?? null,
-    farFromControlKm: r?.summary.farFromControlKm ?? 25,
-    present: {
-      boundaries: [...new Set(feats.map((p) => String(p.kind)).filter((k) => k !== 'cot-zone'))],
-      farPieces: feats.some((p) => p.far_from_control === true),
-      cot: feats.some((p) => p.kind === 'cot-zone'),
-      licence: has('licence'),
-      seismic: has('lines'),
-      isochrons: has('isochrons'),
-      pickKinds: [...new Set(picks.filter((p) => !p.excluded && !p.suspect).map((p) => String(p.kind)))],
-      suspectPicks: picks.some((p) => p.suspect === true && !p.excluded),
-      excludedPicks: picks.some((p) => p.excluded === true),
-      plan: s.planResult !== null,
-    },
-  };
-}
-
-function probe(s: AppState): ReadoutInput | null {
-  if (!s.cursor) return null;
-  const [lon, lat] = s.cursor;
-  const r = s.result;
-  if (!r) return { lon, lat };
-  const g = r.geometry;
-  const [x, y] = transformer(WGS84, { ...g.crs }).forward([lon, lat]);
-  const i = Math.round((x - g.x0) / g.dx);
-  const j = Math.round((y - g.y0) / g.dy);
-  const crs = g.crs.id === 'PROJ4' ? 'analysis CRS' : g.crs.id;
-  if (!(i >= 0 && j >= 0 && i < g.nx && j < g.ny)) return { lon, lat, crs, xy: [x, y], cell: null };
-  const k = j * g.nx + i;
-  const values: Record<string, number> = {};
-  for (const [name, v] of Object.entries(r.grids)) values[name] = v[k];
-  return { lon, lat, crs, xy: [x, y], cell: { i, j, domain: r.domains[k], values } };
-}
 
 // ---------------------------------------------------------------- panels
 mountFiles(slots.files, store, actions);

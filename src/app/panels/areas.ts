@@ -1,9 +1,9 @@
 /** Areas and lengths of the run (inside the licence when there is one), and its warnings. */
 
-import { DOMAIN_STYLES } from '../../domains/styles.js';
 import { clear, h } from '../dom.js';
 import type { Store } from '../state.js';
 import { num, withUnit } from '../text/format.js';
+import { DOMAIN_LABELS } from '../text/labels.js';
 
 const LINE_WORDS: Record<string, string> = {
   'crustal-taper-limit': 'Crustal taper limit',
@@ -21,7 +21,7 @@ export function mountAreas(el: HTMLElement, store: Store): void {
     const s = r.summary;
     const list = s.areasInLicence ?? s.areas;
     el.append(h('div', { class: 'legend-title', text: s.areasInLicence ? `Inside ${s.licenceName}` : 'Whole grid' }));
-    const rows = list.filter((a) => a.code > 0).map((a) => h('tr', {}, h('th', { text: DOMAIN_STYLES.find((d) => d.code === a.code)!.name }), h('td', { text: withUnit(a.km2, 'km²') })));
+    const rows = list.filter((a) => a.code > 0).map((a) => h('tr', {}, h('th', { text: DOMAIN_LABELS[a.code] }), h('td', { text: withUnit(a.km2, 'km²') })));
     const lengths = Object.entries(s.lengths).map(([k, v]) => h('tr', {}, h('th', { text: LINE_WORDS[k] ?? k }), h('td', { text: withUnit(v, 'km') })));
     el.append(
       h('table', { id: 'areas-table' }, ...rows, h('tr', {}, h('th', { text: 'Continent–ocean transition zone' }), h('td', { text: withUnit(s.cotAreaKm2, 'km²') })), ...lengths),

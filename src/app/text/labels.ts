@@ -60,3 +60,14 @@ export const ROLE_LABELS: Record<string, string> = {
   crust: 'Crust-type polygons',
   none: 'Not used',
 };
+
+/** The margin domains as the map and panels name them (the exports keep their own short names). */
+export const DOMAIN_LABELS: Record<number, string> = {
+  0: 'No data',
+  1: 'Proximal continental crust',
+  2: 'Necking zone',
+  3: 'Hyperextended continental crust',
+  4: 'Transition (exhumed mantle or unresolved)',
+  5: 'Oceanic crust',
+  6: 'Moho not imaged (basement picked, no Moho)',
+};

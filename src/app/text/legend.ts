@@ -8,7 +8,7 @@ import { APPLIES_TEXT, DERIVED } from '../../derive/grids.js';
 import { DOMAIN_STYLES } from '../../domains/styles.js';
 import { BOUNDARY_STYLES, COLOURS, COT_FILL, EXCLUDED_PICK, PICK_STYLES, SUSPECT_PICK } from '../map/styles.js';
 import { num, withUnit } from './format.js';
-import { layerLabel, PICK_KIND_LABELS } from './labels.js';
+import { DOMAIN_LABELS, layerLabel, PICK_KIND_LABELS } from './labels.js';
 
 export type LegendEntry =
   | { readonly type: 'title'; readonly text: string }
@@ -42,7 +42,7 @@ export interface LegendInput {
 export function legendEntries(inp: LegendInput): LegendEntry[] {
   const out: LegendEntry[] = [{ type: 'title', text: layerLabel(inp.layer) }];
   if (inp.layer === 'domains') {
-    for (const d of DOMAIN_STYLES) out.push({ type: 'fill', colour: `rgb(${d.colour.join(',')})`, label: d.name });
+    for (const d of DOMAIN_STYLES) out.push({ type: 'fill', colour: `rgb(${d.colour.join(',')})`, label: DOMAIN_LABELS[d.code] });
   } else {
     const info = DERIVED.find((d) => d.name === inp.layer);
     if (info && inp.ramp) {

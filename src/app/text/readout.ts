@@ -1,9 +1,8 @@
 /** The "at cursor" rows: where the cursor is, which cell, its domain and every grid's value there. */
 
 import { DERIVED } from '../../derive/grids.js';
-import { DOMAIN_STYLES } from '../../domains/styles.js';
 import { lonLat, num, withUnit } from './format.js';
-import { GRID_LABELS } from './labels.js';
+import { DOMAIN_LABELS, GRID_LABELS } from './labels.js';
 import type { Row } from './popup.js';
 
 export interface ReadoutInput {
@@ -26,7 +25,7 @@ export function readoutRows(r: ReadoutInput): Row[] {
   }
   const { i, j, domain, values } = r.cell;
   rows.push(['Grid cell', `column ${i}, row ${j}`]);
-  rows.push(['Domain', domain ? DOMAIN_STYLES.find((s) => s.code === domain)?.name ?? String(domain) : 'no data']);
+  rows.push(['Domain', DOMAIN_LABELS[domain] ?? String(domain)]);
   for (const info of DERIVED) {
     const v = values[info.name];
     const continental = domain >= 1 && domain <= 3;
