@@ -3,15 +3,24 @@
  * Builds the app, serves it on loopback, drives Debian's Chromium. Rerunnable; writes docs/screenshots/.
  */
 import { mkdirSync } from 'node:fs';
-import { startApp, openPage, waitReady } from '../tests/helpers/app.js';
+import { loadFiles, startApp, openPage, waitReady } from '../tests/helpers/app.js';
 
 const out = 'docs/screenshots';
 mkdirSync(out, { recursive: true });
 const app = await startApp();
 try {
-  const ctx = await app.browser.newContext({ viewport: { width: 1400, height: 860 }, acceptDownloads: true });
+  // what a new user sees first, at a common laptop size and a larger one
+  for (const [w, hgt] of [[1366, 768], [1600, 1000]]) {
+    const c = await app.browser.newContext({ viewport: { width: w, height: hgt } });
+    const first = await openPage(app, c);
+    await first.page.mouse.move(Math.round(w / 2), Math.round(hgt / 2));
+    await first.page.waitForTimeout(300);
+    await first.page.screenshot({ path: `${out}/first-minute-${w}x${hgt}.png` });
+    await c.close();
+  }
+  const ctx = await app.browser.newContext({ viewport: { width: 1600, height: 1000 }, acceptDownloads: true });
   const { page } = await openPage(app, ctx);
-  await page.mouse.move(700, 420);
+  await page.mouse.move(800, 500);
   await page.screenshot({ path: `${out}/overview.png` });
 
   let runs = await page.evaluate(() => window.__taperline.runs);
@@ -31,11 +40,11 @@ try {
 
   await page.keyboard.press('Escape');
   await page.evaluate(() => document.querySelectorAll('.maplibregl-popup').forEach((e) => e.remove()));
-  await page.setInputFiles('#file-input', 'tests/fixtures/gdal/km_units.tif');
-  await page.setInputFiles('#file-input', { name: 'damaged_moho.tif', mimeType: 'image/tiff', buffer: Buffer.concat([Buffer.from([0x49, 0x49, 42, 0, 8, 0, 0, 0]), Buffer.alloc(64, 0xee)]) });
+  await loadFiles(page, 'tests/fixtures/gdal/km_units.tif');
+  await loadFiles(page, { name: 'damaged_moho.tif', mimeType: 'image/tiff', buffer: Buffer.concat([Buffer.from([0x49, 0x49, 42, 0, 8, 0, 0, 0]), Buffer.alloc(64, 0xee)]) });
   await page.locator('.file[data-name="damaged_moho.tif"] .file-error').waitFor();
   await page.evaluate(() => document.querySelector('.file[data-name="km_units.tif"]')?.scrollIntoView());
-  await page.screenshot({ path: `${out}/loading-files.png`, clip: { x: 0, y: 0, width: 700, height: 860 } });
+  await page.screenshot({ path: `${out}/loading-files.png`, clip: { x: 0, y: 0, width: 760, height: 1000 } });
 
   runs = await page.evaluate(() => window.__taperline.runs);
   await page.selectOption('#layer-select', 'beta-subsidence');
@@ -44,7 +53,7 @@ try {
   await page.screenshot({ path: `${out}/beta-from-subsidence.png` });
 
   // planning and a section at true scale, on a fresh page of the demo
-  const fresh = await app.browser.newContext({ viewport: { width: 1400, height: 860 } });
+  const fresh = await app.browser.newContext({ viewport: { width: 1600, height: 1000 }, acceptDownloads: true });
   const q = await openPage(app, fresh);
   await q.page.click('#btn-plan');
   await q.page.waitForFunction(() => (window.__taperline.planned ?? 0) >= 1, null, { timeout: 60_000 });
@@ -52,6 +61,9 @@ try {
   await q.page.locator('#section-panel:not([hidden]) svg').waitFor();
   await q.page.waitForTimeout(500);
   await q.page.screenshot({ path: `${out}/survey-plan-and-section.png` });
+  // the exported map image
+  const [dl] = await Promise.all([q.page.waitForEvent('download'), q.page.click('#export-png')]);
+  await dl.saveAs(`${out}/map-image.png`);
   console.log(`screenshots written to ${out}/`);
 } finally {
   await app.close();

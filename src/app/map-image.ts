@@ -24,7 +24,8 @@ export function graticuleStep(spanDeg: number): number {
   return steps.find((s) => spanDeg / s <= 8) ?? 30;
 }
 
-const deg = (v: number, pos: string, neg: string) => `${Math.abs(v).toFixed(Math.abs(v) % 1 ? 2 : 0).replace(/\.?0+$/, '')}°${v < 0 ? neg : v > 0 ? pos : ''}`;
+/** A graticule label: 130°W, 34.5°S, 0° (decimals only where the line has them). */
+export const deg = (v: number, pos: string, neg: string) => `${Number(Math.abs(v).toFixed(2))}°${v < 0 ? neg : v > 0 ? pos : ''}`;
 
 export async function renderMapImage(map: maplibregl.Map, opts: MapImageOptions): Promise<Blob> {
   await new Promise<void>((resolve) => {

@@ -107,3 +107,18 @@ describe('popup rows', () => {
     expect(rows.get('Status')).toBe('suspect: departs from its neighbours');
   });
 });
+
+describe('map image graticule labels', async () => {
+  const { deg, graticuleStep } = await import('../../src/app/map-image.js');
+  it('labels whole and half degrees with hemispheres (regression: 130°W read "13°W")', () => {
+    expect(deg(-130, 'E', 'W')).toBe('130°W');
+    expect(deg(-34.5, 'N', 'S')).toBe('34.5°S');
+    expect(deg(0, 'E', 'W')).toBe('0°');
+    expect(deg(10.25, 'E', 'W')).toBe('10.25°E');
+  });
+  it('picks a step giving at most eight lines across', () => {
+    expect(graticuleStep(3.5)).toBe(0.5);
+    expect(graticuleStep(40)).toBe(5);
+    expect(graticuleStep(0.6)).toBe(0.1);
+  });
+});

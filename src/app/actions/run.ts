@@ -43,9 +43,9 @@ export async function run(ctx: Ctx): Promise<void> {
     window.__taperline.lastMillis = performance.now() - t0;
     window.__taperline.error = null;
     await ctx.view.loaded;
-    const fit = takeFit() || !store.state.result;
+    // fit first: a restored view, applied when the result lands, then wins
+    if (takeFit() || !store.state.result) ctx.view.fitTo(result.geometry);
     store.update({ result });
-    if (fit) ctx.view.fitTo(result.geometry);
     const n = result.summary.warnings.length;
     store.update({ status: { text: `Done in ${num(performance.now() - t0)} ms (pipeline ${num(result.millis)} ms).`, error: false, warnings: n } });
     ctx.view.map.once('idle', () => (window.__taperline.ready = true));

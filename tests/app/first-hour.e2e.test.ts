@@ -1,0 +1,132 @@
+// The first hour with your own data, where users meet it (built app, headless Chromium): grids far
+// from the demo, a new project, a file reloaded twice, opacity without recolouring, and the view
+// and planning values kept across a reload.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { crsFromEpsg, WGS84 } from '../../src/crs/registry.js';
+import { transformer } from '../../src/crs/transform.js';
+import { writeGeoTiff } from '../../src/io/geotiff-write.js';
+import { loadFiles, openPage, startApp, waitReady, type App, type OpenedPage } from '../helpers/app.js';
+import { toolOrSkip } from '../helpers/tools.js';
+
+const haveChromium = toolOrSkip('chromium');
+
+/** A basement and a Moho in WGS 84 / UTM zone 33N (the Adriatic), far from the demo's South Pacific. */
+function utm33Grids(): { basement: Buffer; moho: Buffer; bounds: [number, number, number, number] } {
+  const nx = 80;
+  const ny = 60;
+  const g = { nx, ny, x0: 400_000, y0: 4_700_000, dx: 1000, dy: -1000, registration: 'area' as const, crs: crsFromEpsg(32633) };
+  const basement = new Float32Array(nx * ny);
+  const moho = new Float32Array(nx * ny);
+  for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) {
+    basement[j * nx + i] = 3000 + 40 * i;
+    moho[j * nx + i] = basement[j * nx + i] + Math.max(500, 30_000 - 400 * i);
+  }
+  const t = transformer(crsFromEpsg(32633), WGS84);
+  const corners = [[399_500, 4_700_500], [479_500, 4_700_500], [399_500, 4_640_500], [479_500, 4_640_500]].map((p) => t.forward(p as [number, number]));
+  const lons = corners.map((c) => c[0]);
+  const lats = corners.map((c) => c[1]);
+  return {
+    basement: Buffer.from(writeGeoTiff(g, basement, { noData: 'nan', unit: 'm' })),
+    moho: Buffer.from(writeGeoTiff(g, moho, { noData: 'nan', unit: 'm' })),
+    bounds: [Math.min(...lons), Math.min(...lats), Math.max(...lons), Math.max(...lats)],
+  };
+}
+
+describe.skipIf(!haveChromium)('the first hour with your own data', () => {
+  let app: App;
+  let p: OpenedPage;
+
+  beforeAll(async () => {
+    app = await startApp();
+    p = await openPage(app);
+  }, 180_000);
+  afterAll(async () => {
+    await app?.close();
+  });
+
+  it('opacity changes recolour nothing (the colouring is cached per layer and run)', async () => {
+    const before = await p.page.evaluate(() => window.__taperline.colourings());
+    for (const v of ['0.2', '0.4', '0.6', '0.9', '0.5']) {
+      await p.page.locator('#opacity').fill(v);
+      await p.page.waitForTimeout(30);
+    }
+    expect(await p.page.evaluate(() => window.__taperline.state.opacity)).toBe(0.5);
+    expect(await p.page.evaluate(() => window.__taperline.colourings())).toBe(before);
+    await p.page.selectOption('#layer-select', 'sediment-thickness');
+    expect(await p.page.evaluate(() => window.__taperline.colourings())).toBeGreaterThan(before);
+  });
+
+  it('a file reloaded twice in quick succession ends with the second request\'s result', async () => {
+    const card = p.page.locator('.file[data-name="moho.tif"]');
+    const units = card.locator('.overrides select').first();
+    await units.selectOption('km');
+    await units.selectOption('m'); // no wait: both requests in flight
+    await p.page.waitForFunction(() => {
+      const f = window.__taperline.state.files.find((x) => x.name === 'moho.tif')!;
+      return f.options.units === 'm' && f.report?.units.value === 'm';
+    }, null, { timeout: 30_000 });
+    await p.page.waitForTimeout(1500);
+    const f = await p.page.evaluate(() => window.__taperline.state.files.find((x) => x.name === 'moho.tif')!);
+    expect(f.error).toBeNull();
+    expect(f.report!.units.value).toBe('m');
+    expect(f.role).toBe('moho');
+  });
+
+  it('grids in another UTM zone far from the demo: the map zooms to them, and the demo marking goes', async () => {
+    const g = utm33Grids();
+    const runs = await p.page.evaluate(() => window.__taperline.runs);
+    await loadFiles(p.page, [
+      { name: 'top-basement-utm33.tif', mimeType: 'image/tiff', buffer: g.basement },
+      { name: 'moho-utm33.tif', mimeType: 'image/tiff', buffer: g.moho },
+    ], 'new');
+    await waitReady(p.page, runs + 1);
+    const files = await p.page.evaluate(() => window.__taperline.state.files.map((f) => `${f.name}:${f.role}`).sort());
+    expect(files).toEqual(['moho-utm33.tif:moho', 'top-basement-utm33.tif:top-basement']);
+    const b = await p.page.evaluate(() => window.__taperline.map.getBounds().toArray().flat());
+    const [w, s, e, n] = g.bounds;
+    expect(b[0]).toBeLessThanOrEqual(w);
+    expect(b[1]).toBeLessThanOrEqual(s);
+    expect(b[2]).toBeGreaterThanOrEqual(e);
+    expect(b[3]).toBeGreaterThanOrEqual(n);
+    expect(await p.page.locator('#scenario').textContent()).toBe('Your data (kept in this browser only)');
+    // panning away and "Fit to data" comes back
+    await p.page.evaluate(() => window.__taperline.map.jumpTo({ center: [-100, 20], zoom: 3 }));
+    await p.page.click('#btn-fit');
+    const c = await p.page.evaluate(() => window.__taperline.map.getCenter().toArray());
+    expect(Math.abs(c[0] - (w + e) / 2)).toBeLessThan(0.5);
+  });
+
+  it('the view and the planning values survive a reload', async () => {
+    await p.page.evaluate(() => window.__taperline.map.jumpTo({ center: [14.2, 42.1], zoom: 8.5 }));
+    await p.page.fill('#plan-spacingKm', '35');
+    await p.page.press('#plan-spacingKm', 'Tab');
+    await p.page.waitForTimeout(300);
+    await p.page.reload();
+    await waitReady(p.page);
+    await p.page.waitForTimeout(500);
+    const c = await p.page.evaluate(() => ({ center: window.__taperline.map.getCenter().toArray(), zoom: window.__taperline.map.getZoom() }));
+    expect(c.center[0]).toBeCloseTo(14.2, 3);
+    expect(c.center[1]).toBeCloseTo(42.1, 3);
+    expect(c.zoom).toBeCloseTo(8.5, 3);
+    expect(await p.page.locator('#plan-spacingKm').inputValue()).toBe('35');
+  });
+
+  it('"New project" from the demo clears the demo\'s files in one action, asking first', async () => {
+    const q = await openPage(app); // a fresh context: the demo
+    expect(await q.page.evaluate(() => window.__taperline.state.files.some((f) => f.demo))).toBe(true);
+    q.page.once('dialog', (d) => void d.accept());
+    await q.page.click('#btn-new');
+    await q.page.waitForFunction(() => window.__taperline.state.files.length === 0);
+    expect(await q.page.locator('#scenario').textContent()).toBe('No data loaded');
+    expect(await q.page.evaluate(() => window.__taperline.state.result)).toBeNull();
+    await q.page.close();
+  });
+
+  it('the status line counts the warnings in words and links to them', async () => {
+    const q = await openPage(app);
+    const text = (await q.page.locator('#status-warnings').textContent())!;
+    expect(text).toMatch(/^(\d+ warnings?|no warnings)$/);
+    await q.page.click('#status-warnings');
+    await q.page.close();
+  });
+});
