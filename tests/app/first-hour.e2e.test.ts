@@ -1,6 +1,7 @@
 // The first hour with your own data, where users meet it (built app, headless Chromium): grids far
 // from the demo, a new project, a file reloaded twice, opacity without recolouring, and the view
 // and planning values kept across a reload.
+import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { crsFromEpsg, WGS84 } from '../../src/crs/registry.js';
 import { transformer } from '../../src/crs/transform.js';
@@ -72,6 +73,31 @@ describe.skipIf(!haveChromium)('the first hour with your own data', () => {
     expect(f.role).toBe('moho');
   });
 
+  it('a file that takes a role from another says so (the other is set to "not used")', async () => {
+    await loadFiles(p.page, { name: 'moho-reprocessed.tif', mimeType: 'image/tiff', buffer: readFileSync('fixtures/demo/moho.tif') }, 'add');
+    await p.page.waitForFunction(() => /moho-reprocessed\.tif is now the moho/.test(document.querySelector('#status')?.textContent ?? ''), null, { timeout: 30_000 });
+    expect(await p.page.locator('#status').textContent()).toMatch(/moho\.tif no longer used/);
+    const roles = await p.page.evaluate(() => window.__taperline.state.files.filter((f) => /moho/.test(f.name)).map((f) => `${f.name}:${f.role}`).sort());
+    expect(roles).toEqual(['moho-reprocessed.tif:moho', 'moho.tif:none']);
+  });
+
+  it('evidence GeoJSON that carries a projected CRS is drawn reprojected to longitude/latitude', async () => {
+    // a licence square in WGS 84 / UTM 9S metres (an old-style "crs" member), inside the demo area
+    const ring = [[560_000, 6_120_000], [600_000, 6_120_000], [600_000, 6_160_000], [560_000, 6_160_000], [560_000, 6_120_000]];
+    const fc = { type: 'FeatureCollection', crs: { type: 'name', properties: { name: 'urn:ogc:def:crs:EPSG::32709' } }, features: [{ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [ring] } }] };
+    await loadFiles(p.page, { name: 'licence-utm.geojson', mimeType: 'application/geo+json', buffer: Buffer.from(JSON.stringify(fc)) }, 'add');
+    await p.page.waitForFunction(() => window.__taperline.state.files.some((f) => f.name === 'licence-utm.geojson' && f.display), null, { timeout: 30_000 });
+    // what the map's licence source is given (main.ts sets it from the file's display copy)
+    const shown = await p.page.evaluate(() => {
+      const f = window.__taperline.state.files.find((x) => x.name === 'licence-utm.geojson')!;
+      return { role: f.role, first: (f.display as { features: { geometry: { coordinates: number[][][] } }[] }).features[0].geometry.coordinates[0][0] };
+    });
+    expect(shown.role).toBe('licence');
+    const [lon, lat] = transformer(crsFromEpsg(32709), WGS84).forward([560_000, 6_120_000]);
+    expect(shown.first[0]).toBeCloseTo(lon, 6);
+    expect(shown.first[1]).toBeCloseTo(lat, 6);
+  });
+
   it('grids in another UTM zone far from the demo: the map zooms to them, and the demo marking goes', async () => {
     const g = utm33Grids();
     const runs = await p.page.evaluate(() => window.__taperline.runs);
@@ -79,6 +105,7 @@ describe.skipIf(!haveChromium)('the first hour with your own data', () => {
       { name: 'top-basement-utm33.tif', mimeType: 'image/tiff', buffer: g.basement },
       { name: 'moho-utm33.tif', mimeType: 'image/tiff', buffer: g.moho },
     ], 'new');
+    await p.page.waitForFunction(() => window.__taperline.state.result?.geometry.crs.id === 'EPSG:32633' && !window.__taperline.state.running, null, { timeout: 60_000 });
     await waitReady(p.page, runs + 1);
     const files = await p.page.evaluate(() => window.__taperline.state.files.map((f) => `${f.name}:${f.role}`).sort());
     expect(files).toEqual(['moho-utm33.tif:moho', 'top-basement-utm33.tif:top-basement']);

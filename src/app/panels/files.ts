@@ -34,7 +34,7 @@ export function mountFiles(el: HTMLElement, store: Store, actions: Actions): voi
           h('input', { class: 'crs-input', type: 'text', size: 16, placeholder: 'EPSG code or proj4', value: f.options.crs ?? '',
             onchange: (e: Event) => actions.override(f.id, 'crs', (e.target as HTMLInputElement).value.trim() || 'auto') }))));
       } else if (!f.error) {
-        details.push(h('div', { class: 'report', text: `${num(f.features ?? 0)} features` }), ...(f.warnings ?? []).map((w) => h('div', { class: 'warning', text: w })));
+        details.push(h('div', { class: 'report', text: `${num(f.features ?? 0)} feature${f.features === 1 ? '' : 's'}` }), ...(f.warnings ?? []).map((w) => h('div', { class: 'warning', text: w })));
       }
       el.append(
         h('div', { class: `file${f.error ? ' has-error' : ''}`, 'data-name': f.name },
