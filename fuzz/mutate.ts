@@ -4,17 +4,9 @@
  * values replaced by the wrong type, removed keys and huge numbers. Deterministic from a seed.
  */
 
-/** mulberry32: a small, fast, seedable PRNG (Tommy Ettinger's public-domain generator). */
-export function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { prng } from '../fixtures/demo-margin.js';
+
+export { prng };
 
 export type Rand = () => number;
 const int = (r: Rand, n: number) => Math.floor(r() * n);
