@@ -1,152 +1,154 @@
 /**
- * Benchmarks: `npm run bench [-- --size 4096]`. Prints our figures beside reference implementations.
- * Not a test: figures depend on the machine; the README records the ones measured.
+ * Benchmarks: `npm run bench [-- --sizes 1024,2048,4096 --reps 3]`. On the invented demo margin at
+ * each size (bench/inputs.ts), ours and the references timed side by side, interleaved, `reps`
+ * repetitions, median (min–max), the ratio beside each figure:
+ *  - reading the three GeoTIFFs: ours vs GDAL's reader;
+ *  - the derived grids vs the plain-loop floor (one loop writing two Float32 grids), per grid written;
+ *  - contouring crustal thickness at 5 levels: ours (traceLevel per level) vs d3-contour vs GDAL's
+ *    in-memory generator;
+ *  - each pipeline stage (from the pipeline's own progress marks);
+ *  - the whole `taperline synth` process vs the GDAL subset (gdal_calc.py + gdal_contour to GPKG),
+ *    with its peak RSS.
+ * A benchmark, not a test: nothing fails on timing. The README records the figures measured.
  */
 
-import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { spawn } from 'node:child_process';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
-import { fromArrayBuffer, writeArrayBuffer } from 'geotiff';
-import { readGeoTiff } from '../src/io/geotiff-read.js';
-import { crsFromEpsg } from '../src/crs/registry.js';
+import { contours } from 'd3-contour';
+import { traceLevel } from '../src/contour/marching-squares.js';
 import { derive } from '../src/derive/derive.js';
-import { writeGeoTiff } from '../src/io/geotiff-write.js';
+import { readGeoTiff } from '../src/io/geotiff-read.js';
 import { resolveParams } from '../src/params.js';
-import { betaFromSubsidence, MCKENZIE_1978 } from '../src/science/mckenzie.js';
-import { waterLoadedDepthCompacted } from '../src/science/unloading.js';
-import { LITHOLOGIES } from '../src/science/compaction.js';
-import { prng } from '../fixtures/demo-margin.js';
+import { runPipeline } from '../src/pipeline.js';
+import { DEMO_PARAMS } from '../fixtures/demo-margin.js';
+import { benchInputs, bytesOf } from './inputs.js';
+import { gdalContour, gdalRead, gdalSubset, haveGdal } from './gdal.js';
 
 const args = process.argv.slice(2);
-const size = Number(args[args.indexOf('--size') + 1] || 4096) || 4096;
+const flag = (k: string, d: string) => (args.includes(`--${k}`) ? args[args.indexOf(`--${k}`) + 1] : d);
+const sizes = flag('sizes', '1024,2048,4096').split(',').map(Number);
+const reps = Number(flag('reps', '3'));
+const LEVELS = [2000, 4000, 10_000, 20_000, 28_000];
 
-function rssMB(): number {
-  return process.memoryUsage().rss / 2 ** 20;
-}
+interface Stat { median: number; min: number; max: number }
+const stat = (xs: number[]): Stat => {
+  const s = [...xs].sort((a, b) => a - b);
+  return { median: s[Math.floor(s.length / 2)], min: s[0], max: s[s.length - 1] };
+};
+const ms = (s: Stat) => `${s.median.toFixed(0)} ms (${s.min.toFixed(0)}–${s.max.toFixed(0)})`;
+const ratio = (a: number, b: number | null) => (b ? `×${(a / b).toFixed(2)}` : '—');
+const rows: string[][] = [];
+const row = (...r: string[]) => (rows.push(r), console.log(`  ${r.join('  |  ')}`));
 
-function time<T>(f: () => T): [T, number] {
+async function timeAsync(f: () => Promise<unknown>): Promise<number> {
   const t0 = performance.now();
-  const r = f();
-  return [r, performance.now() - t0];
+  await f();
+  return performance.now() - t0;
+}
+function time(f: () => unknown): number {
+  const t0 = performance.now();
+  f();
+  return performance.now() - t0;
 }
 
-function syntheticInputs(n: number) {
-  const rnd = prng(5);
-  const N = n * n;
-  const seabed = new Float32Array(N);
-  const basement = new Float32Array(N);
-  const moho = new Float32Array(N);
-  for (let j = 0; j < n; j++) {
-    for (let i = 0; i < n; i++) {
-      const k = j * n + i;
-      const u = i / n;
-      const tc = Math.max(0, 32_000 * (1 - 1.3 * u)) + (u > 0.85 ? 7000 : 0);
-      seabed[k] = 200 + 4800 * u + 20 * rnd();
-      basement[k] = seabed[k] + 1000 + 4000 * Math.sin(Math.PI * u);
-      moho[k] = basement[k] + tc;
-    }
-  }
-  return { seabed, basement, moho };
-}
-
-const rows: [string, string, string][] = [];
-const rss0 = rssMB();
-console.log(`Taperline benchmarks (node ${process.version}); grid ${size} × ${size} = ${(size * size / 1e6).toFixed(1)} M cells`);
-
-// 1. Derived grids for a size² analysis grid (issue: no out-of-memory at 4096²).
-{
-  const inputs = syntheticInputs(size);
-  const p = resolveParams({ riftAge: 100 });
-  let peak = rssMB();
-  const timer = setInterval(() => (peak = Math.max(peak, rssMB())), 50);
-  const [d, ms] = time(() => derive(inputs, p));
-  clearInterval(timer);
-  peak = Math.max(peak, rssMB());
-  rows.push(['derive: all 15 grids', `${(ms / 1000).toFixed(2)} s, ${((size * size) / (ms / 1000) / 1e6).toFixed(2)} M cells/s`, `peak RSS ${peak.toFixed(0)} MB (start ${rss0.toFixed(0)} MB)`]);
-  void d;
-  // Reference: the same unloading + β-from-subsidence done naively per cell with a fresh Brent solve
-  // on a 1/64 sample (extrapolated), as a direct use of the published formulas would do it.
-  const mk = { ...MCKENZIE_1978, tc: p.tc0, rhoMantle: p.rhoMantle };
-  const [, msRef] = time(() => {
-    for (let k = 0; k < inputs.seabed.length; k += 64) {
-      const w = inputs.seabed[k];
-      const s = inputs.basement[k] - w;
-      const Y = waterLoadedDepthCompacted(w, s, LITHOLOGIES.shale, p.rhoMantle, p.rhoWater);
-      betaFromSubsidence(Y, 100, mk);
-    }
-  });
-  rows.push(['reference: per-cell Brent β-from-subsidence only', `${((msRef * 64) / 1000).toFixed(2)} s (extrapolated from 1/64)`, '']);
-}
-
-// 2. GeoTIFF writing, ours beside geotiff.js's writer (2000 × 2000 Float32).
-{
-  const n = 2000;
-  const v = new Float32Array(n * n).map((_, k) => Math.sin(k * 1e-3));
-  const geom = { nx: n, ny: n, x0: 0, y0: 0, dx: 1, dy: -1, registration: 'area' as const, crs: crsFromEpsg(32709) };
-  const [ours, msOurs] = time(() => writeGeoTiff(geom, v, { noData: 'nan' }));
-  const [, msRef] = time(() =>
-    writeArrayBuffer(v, { width: n, height: n, ModelPixelScale: [1, 1, 0], ModelTiepoint: [0, 0, 0, 0, 0, 0], GeographicTypeGeoKey: 4326, GTModelTypeGeoKey: 2 } as never),
-  );
-  rows.push(['GeoTIFF write 2000² Float32 (ours)', `${msOurs.toFixed(0)} ms, ${(ours.length / 2 ** 20).toFixed(1)} MB`, `geotiff.js writeArrayBuffer: ${msRef.toFixed(0)} ms`]);
-}
-
-// 3. GeoTIFF reading, 2048 × 2048 Float32: ours beside geotiff.js and (when present) GDAL itself,
-// on files GDAL wrote (uncompressed strips; DEFLATE + floating-point predictor, 256 tiles).
-{
-  const n = 2048;
-  const dir = mkdtempSync(join(tmpdir(), 'taperline-bench-'));
-  const v = new Float32Array(n * n).map((_, k) => 1000 + (k % n) * 3 + Math.sin(k * 1e-3));
-  const geom = { nx: n, ny: n, x0: 500_000, y0: 7_000_000, dx: 100, dy: -100, registration: 'area' as const, crs: crsFromEpsg(32709) };
-  writeFileSync(join(dir, 'src.tif'), writeGeoTiff(geom, v, { noData: 'nan', level: 0 }));
-  const gdalHere = (() => {
-    try {
-      execFileSync('gdal_translate', ['--version'], { stdio: 'ignore' });
-      return true;
-    } catch {
-      return false;
-    }
-  })();
-  const layouts: [string, string[]][] = [['uncompressed strips', []], ['DEFLATE + predictor 3, tiled', ['-co', 'COMPRESS=DEFLATE', '-co', 'PREDICTOR=3', '-co', 'TILED=YES']]];
-  for (const [label, co] of layouts) {
-    const file = join(dir, `${label.replace(/\W+/g, '-')}.tif`);
-    if (gdalHere) execFileSync('gdal_translate', ['-q', ...co, join(dir, 'src.tif'), file]);
-    else writeFileSync(file, readFileSync(join(dir, 'src.tif')));
-    const bytes = new Uint8Array(readFileSync(file));
-    const med = async (f: () => Promise<unknown>) => {
-      const t: number[] = [];
-      for (let k = 0; k < 3; k++) {
-        const t0 = performance.now();
-        await f();
-        t.push(performance.now() - t0);
+/** Wall time and peak resident memory (VmHWM, Linux) of a child process. */
+function runProcess(cmd: string, argv: string[]): Promise<{ ms: number; peakMB: number; code: number | null }> {
+  return new Promise((resolve) => {
+    const t0 = performance.now();
+    const child = spawn(cmd, argv, { stdio: 'ignore' });
+    let peak = 0;
+    const poll = setInterval(() => {
+      try {
+        const kb = Number(/VmHWM:\s+(\d+)/.exec(readFileSync(`/proc/${child.pid}/status`, 'utf8'))?.[1] ?? 0);
+        peak = Math.max(peak, kb / 1024);
+      } catch {
+        // the process has gone
       }
-      return t.sort((a, b) => a - b)[1];
-    };
-    const ours = await med(() => readGeoTiff(bytes, 'bench.tif', { role: 'top-basement' }));
-    const lib = await med(async () => (await (await fromArrayBuffer(bytes.slice().buffer)).getImage()).readRasters());
-    let gdal = '';
-    try {
-      const ms = execFileSync('/usr/bin/python3', ['-c', `import time\nfrom osgeo import gdal\nts=[]\nfor k in range(3):\n  t=time.time(); gdal.Open(${JSON.stringify(file)}).ReadAsArray(); ts.append(time.time()-t)\nprint(sorted(ts)[1]*1000)`], { encoding: 'utf8' });
-      gdal = `, GDAL ReadAsArray ${Number(ms).toFixed(0)} ms (×${(ours / Number(ms)).toFixed(1)})`;
-    } catch {
-      gdal = ', GDAL (python3-gdal) not found';
-    }
-    rows.push([`GeoTIFF read 2048² Float32, ${label}${gdalHere ? ' (GDAL-written)' : ''}`, `${ours.toFixed(0)} ms (incl. unit/sign detection)`, `geotiff.js readRasters ${lib.toFixed(0)} ms${gdal}`]);
+    }, 25);
+    child.on('exit', (code) => {
+      clearInterval(poll);
+      resolve({ ms: performance.now() - t0, peakMB: peak, code });
+    });
+  });
+}
+
+console.log(`Taperline benchmarks: node ${process.version}, ${availableParallelism()} cores, sizes ${sizes.join(', ')}, ${reps} repetitions${haveGdal() ? '' : ' (GDAL not found: references skipped)'}`);
+const params = resolveParams(DEMO_PARAMS);
+const paramsFile = join('.tmp', 'bench', 'params.json');
+mkdirSync(join('.tmp', 'bench'), { recursive: true });
+writeFileSync(paramsFile, JSON.stringify(DEMO_PARAMS));
+
+for (const n of sizes) {
+  console.log(`\n${n} × ${n} (${((n * n) / 1e6).toFixed(1)} M cells)`);
+  const paths = benchInputs(n, (m) => console.log(`  ${m}`));
+  const files = [paths['top-basement'], paths.moho, paths.seabed];
+  const bytes = files.map(bytesOf);
+
+  // 1. reading
+  const readT: number[] = [];
+  let grids = null as null | Awaited<ReturnType<typeof readGeoTiff>>[];
+  for (let k = 0; k < reps; k++) {
+    readT.push(await timeAsync(async () => (grids = await Promise.all(bytes.map((b, q) => readGeoTiff(b, files[q], { role: (['top-basement', 'moho', 'seabed'] as const)[q] }))))));
   }
+  const gRead = gdalRead(files, reps);
+  const gReadSum = gRead ? gRead.reduce((a, b) => a + b, 0) : null;
+  row(`${n}²`, 'read 3 GeoTIFFs (DEFLATE, tiled)', ms(stat(readT)), gReadSum ? `GDAL ${gReadSum.toFixed(0)} ms` : 'GDAL —', ratio(stat(readT).median, gReadSum));
+  const [basement, moho, seabed] = grids!.map((g) => g.grid.values);
+
+  // 2. derived grids against the floor: one plain loop writing two Float32 outputs
+  const floorT: number[] = [];
+  const deriveT: number[] = [];
+  let outputs = 0;
+  for (let k = 0; k < reps; k++) {
+    floorT.push(time(() => {
+      const a = new Float32Array(basement.length);
+      const b = new Float32Array(basement.length);
+      for (let q = 0; q < basement.length; q++) {
+        a[q] = moho[q] - basement[q];
+        b[q] = basement[q] - seabed[q];
+      }
+    }));
+    deriveT.push(time(() => (outputs = Object.keys(derive({ seabed, basement, moho }, params).grids).length)));
+  }
+  const perGridFloor = stat(floorT).median / 2;
+  row(`${n}²`, `derive: ${outputs} grids`, ms(stat(deriveT)), `floor ${perGridFloor.toFixed(1)} ms per grid written`, ratio(stat(deriveT).median / outputs, perGridFloor));
+
+  // 3. contouring 5 levels of crustal thickness
+  const thick = Float32Array.from(moho, (v, q) => v - basement[q]);
+  const oursC: number[] = [];
+  const d3C: number[] = [];
+  for (let k = 0; k < reps; k++) {
+    oursC.push(time(() => LEVELS.forEach((l) => traceLevel({ values: thick, nx: n, ny: n }, l))));
+    d3C.push(time(() => contours().size([n, n]).thresholds(LEVELS)(Array.from(thick, (v) => (Number.isNaN(v) ? -Infinity : v)))));
+  }
+  const gC = gdalContour(paths['top-basement'], paths.moho, LEVELS, reps);
+  row(`${n}²`, 'contour 5 levels (in memory)', ms(stat(oursC)), `d3-contour ${ms(stat(d3C))}; GDAL generator ${gC ? `${gC.toFixed(0)} ms` : '—'}`, ratio(stat(oursC).median, gC));
+
+  // 4. pipeline stages (one run; the stage marks are the pipeline's own progress calls)
+  const marks: [string, number][] = [];
+  const t0 = performance.now();
+  runPipeline(
+    { basement: { name: 'b', ...grids![0] }, moho: { name: 'm', ...grids![1] }, seabed: { name: 's', ...grids![2] } },
+    { params: DEMO_PARAMS, onProgress: (stage) => marks.push([stage, performance.now() - t0]) },
+  );
+  const stages = marks.slice(1).map(([, t], k) => `${marks[k][0]} ${(t - marks[k][1]).toFixed(0)}`);
+  row(`${n}²`, 'pipeline stages (ms)', stages.join(', '), '', '');
+
+  // 5. the whole synth process against the GDAL subset
+  const out = join('.tmp', 'bench', String(n), 'out');
+  mkdirSync(out, { recursive: true });
+  const synth = [] as { ms: number; peakMB: number }[];
+  const subset: number[] = [];
+  for (let k = 0; k < Math.min(reps, n >= 4096 ? 1 : reps); k++) {
+    synth.push(await runProcess(process.execPath, ['--import', 'tsx', 'src/cli/main.ts', 'synth', '--top-basement', paths['top-basement'], '--moho', paths.moho, '--seabed', paths.seabed, '--params', paramsFile, '--out', out]));
+    const g = gdalSubset(paths['top-basement'], paths.moho, LEVELS, join('.tmp', 'bench', String(n)));
+    if (g !== null) subset.push(g);
+  }
+  const sub = subset.length ? stat(subset).median : null;
+  row(`${n}²`, 'whole synth (process)', `${ms(stat(synth.map((s) => s.ms)))}, peak RSS ${Math.max(...synth.map((s) => s.peakMB)).toFixed(0)} MB`, sub ? `GDAL subset ${sub.toFixed(0)} ms` : 'GDAL subset —', ratio(stat(synth.map((s) => s.ms)).median, sub));
 }
 
-// 4. The whole pipeline on the invented demo (600 × 400), as the app and `taperline demo` run it.
-{
-  const { demoInputs } = await import('../tests/helpers/demo-run.js');
-  const { runPipeline } = await import('../src/pipeline.js');
-  const { outputFiles } = await import('../src/export/outputs.js');
-  const inputs = await demoInputs({ picks: true, licence: true, isochrons: true, lines: true });
-  runPipeline(inputs, { params: { riftAge: 110 } }); // warm-up
-  const [r, ms] = time(() => runPipeline(inputs, { params: { riftAge: 110 } }));
-  const [, msOut] = time(() => outputFiles(r, { version: 'bench', time: '', tool: 'cli' }));
-  rows.push(['pipeline on the demo (600 × 400, picks, licence)', `${ms.toFixed(0)} ms`, `+ all outputs ${msOut.toFixed(0)} ms`]);
-}
-
-const w0 = Math.max(...rows.map((r) => r[0].length));
-const w1 = Math.max(...rows.map((r) => r[1].length));
-for (const r of rows) console.log(`${r[0].padEnd(w0)}  ${r[1].padEnd(w1)}  ${r[2]}`);
+console.log('\n| size | what | ours | reference | ratio |\n| --- | --- | --- | --- | --- |');
+for (const r of rows) console.log(`| ${r.join(' | ')} |`);
