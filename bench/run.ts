@@ -4,7 +4,7 @@
  * repetitions, median (min–max), the ratio beside each figure:
  *  - reading the three GeoTIFFs: ours vs GDAL's reader;
  *  - the derived grids vs the plain-loop floor (one loop writing two Float32 grids), per grid written;
- *  - contouring crustal thickness at 5 levels: ours (traceLevel per level) vs d3-contour vs GDAL's
+ *  - contouring crustal thickness at 5 levels: ours (traceLevels, one pass) vs d3-contour vs GDAL's
  *    in-memory generator;
  *  - each pipeline stage (from the pipeline's own progress marks);
  *  - the whole `taperline synth` process vs the GDAL subset (gdal_calc.py + gdal_contour to GPKG),
@@ -17,7 +17,7 @@ import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import { contours } from 'd3-contour';
-import { traceLevel } from '../src/contour/marching-squares.js';
+import { traceLevels } from '../src/contour/marching-squares.js';
 import { derive } from '../src/derive/derive.js';
 import { readGeoTiff } from '../src/io/geotiff-read.js';
 import { resolveParams } from '../src/params.js';
@@ -120,7 +120,7 @@ for (const n of sizes) {
   const oursC: number[] = [];
   const d3C: number[] = [];
   for (let k = 0; k < reps; k++) {
-    oursC.push(time(() => LEVELS.forEach((l) => traceLevel({ values: thick, nx: n, ny: n }, l))));
+    oursC.push(time(() => traceLevels({ values: thick, nx: n, ny: n }, LEVELS)));
     d3C.push(time(() => contours().size([n, n]).thresholds(LEVELS)(Array.from(thick, (v) => (Number.isNaN(v) ? -Infinity : v)))));
   }
   const gC = gdalContour(paths['top-basement'], paths.moho, LEVELS, reps);

@@ -61,6 +61,7 @@ interface Segments {
  * surrounded by "below", so the result is closed rings bounding {value ≥ level}.
  */
 export function traceLevel(grid: GridLike, level: number, fill = false): Lines {
+  if (!fill) return traceLevels(grid, [level])[0];
   const { nx, ny } = grid;
   const v = grid.values;
   // For filling, work on a virtual grid padded by one sample of −∞ on every side.
@@ -132,6 +133,77 @@ export function traceLevel(grid: GridLike, level: number, fill = false): Lines {
     }
   }
   return stitch(seg, pad);
+}
+
+/**
+ * Isolines at several levels in one pass over the grid (the same crossings, saddle rule, segment
+ * order and stitching as traceLevel, so each level's lines are identical to its own traceLevel
+ * call). A cell is skipped unless some level lies in (min, max] of its corners, so the scan costs
+ * about one read per sample whatever the number of levels.
+ */
+export function traceLevels(grid: GridLike, levels: readonly number[]): Lines[] {
+  const { nx, ny } = grid;
+  const v = grid.values;
+  const order = levels.map((l, k) => [l, k] as const).sort((a, b) => a[0] - b[0]);
+  const sorted = order.map((o) => o[0]);
+  const segs: Segments[] = levels.map(() => ({ from: [], to: [], pts: [] }));
+  const W = nx;
+  const L = sorted.length;
+  if (!L || nx < 2 || ny < 2) return levels.map(() => stitch({ from: [], to: [], pts: [] }, 0));
+  const lo = sorted[0];
+  const hi = sorted[L - 1];
+  for (let j = 0; j < ny - 1; j++) {
+    let row = j * nx;
+    for (let i = 0; i < nx - 1; i++, row++) {
+      const a = v[row];
+      const b = v[row + 1];
+      const d = v[row + nx];
+      const c = v[row + nx + 1];
+      // NaN fails every comparison below, so a cell with no data is skipped here
+      const mn = Math.min(a, b, c, d);
+      const mx = Math.max(a, b, c, d);
+      if (!(mn < hi && mx >= lo)) continue;
+      // the levels with a crossing: mn < level <= mx
+      for (let q = 0; q < L; q++) {
+        const level = sorted[q];
+        if (level <= mn) continue;
+        if (level > mx) break;
+        cellSegments(segs[order[q][1]], a, b, c, d, i, j, level, W);
+      }
+    }
+  }
+  return segs.map((sg) => stitch(sg, 0));
+}
+
+/** The segments of one cell at one level (isolines: no padding, no inset). */
+function cellSegments(seg: Segments, a: number, b: number, c: number, d: number, i: number, j: number, level: number, W: number): void {
+  const A = a >= level;
+  const B = b >= level;
+  const C = c >= level;
+  const D = d >= level;
+  const cx: number[] = [];
+  const cy: number[] = [];
+  const cid: number[] = [];
+  const ctype: number[] = [];
+  const hId = (ii: number, jj: number) => 2 * (jj * W + ii);
+  const vId = (ii: number, jj: number) => 2 * (jj * W + ii) + 1;
+  if (A !== B) (cx.push(i + crossT(a, b, level, 0)), cy.push(j), cid.push(hId(i, j)), ctype.push(A ? 1 : 0));
+  if (B !== C) (cx.push(i + 1), cy.push(j + crossT(b, c, level, 0)), cid.push(vId(i + 1, j)), ctype.push(B ? 1 : 0));
+  if (C !== D) (cx.push(i + crossT(d, c, level, 0)), cy.push(j + 1), cid.push(hId(i, j + 1)), ctype.push(C ? 1 : 0));
+  if (D !== A) (cx.push(i), cy.push(j + crossT(a, d, level, 0)), cid.push(vId(i, j)), ctype.push(D ? 1 : 0));
+  if (cx.length === 2) {
+    const x = ctype[0] === 1 ? 0 : 1;
+    push(seg, cid[x], cid[1 - x], cx[x], cy[x], cx[1 - x], cy[1 - x]);
+    return;
+  }
+  const den = a + c - b - d;
+  const centre = Number.isFinite(den) && den !== 0 ? (a * c - b * d) / den : (a + b + c + d) / 4;
+  const joined = centre >= level;
+  for (let k = 0; k < 4; k++) {
+    if (ctype[k] !== 1) continue;
+    const e = joined ? (k + 1) % 4 : (k + 3) % 4;
+    push(seg, cid[k], cid[e], cx[k], cy[k], cx[e], cy[e]);
+  }
 }
 
 function push(s: Segments, from: number, to: number, x1: number, y1: number, x2: number, y2: number): void {

@@ -6,7 +6,7 @@
 import { execFileSync } from 'node:child_process';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { lineCount, lineRange, traceLevel, type Lines } from '../../src/contour/marching-squares.js';
+import { lineCount, lineRange, traceLevel, traceLevels, type Lines } from '../../src/contour/marching-squares.js';
 import { crsFromEpsg } from '../../src/crs/registry.js';
 import { classify, FLAG_BLOCK } from '../../src/domains/classify.js';
 import { oceanwardFromAzimuth } from '../../src/domains/direction.js';
@@ -105,6 +105,22 @@ describe('contour invariants (fast-check, 300 random grids each)', () => {
         });
       }),
       { numRuns: 300, seed: 20261202 },
+    );
+  });
+
+  it('all levels in one pass give each level exactly its own traceLevel lines', () => {
+    fc.assert(
+      fc.property(grids, ({ nx, ny, values }) => {
+        const g = { values: Float32Array.from(values), nx, ny };
+        const levels = [2, 0.5, 1, 2.5, 1.5];
+        traceLevels(g, levels).forEach((l, k) => {
+          const one = traceLevel(g, levels[k]);
+          expect(Array.from(l.positions)).toEqual(Array.from(one.positions));
+          expect(Array.from(l.starts)).toEqual(Array.from(one.starts));
+          expect(Array.from(l.closed)).toEqual(Array.from(one.closed));
+        });
+      }),
+      { numRuns: 200, seed: 11 },
     );
   });
 
