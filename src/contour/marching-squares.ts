@@ -152,57 +152,64 @@ export function traceLevels(grid: GridLike, levels: readonly number[]): Lines[] 
   if (!L || nx < 2 || ny < 2) return levels.map(() => stitch({ from: [], to: [], pts: [] }, 0));
   const lo = sorted[0];
   const hi = sorted[L - 1];
+  let q = 0;
   for (let j = 0; j < ny - 1; j++) {
-    let row = j * nx;
-    for (let i = 0; i < nx - 1; i++, row++) {
-      const a = v[row];
-      const b = v[row + 1];
-      const d = v[row + nx];
-      const c = v[row + nx + 1];
-      // NaN fails every comparison below, so a cell with no data is skipped here
-      const mn = Math.min(a, b, c, d);
-      const mx = Math.max(a, b, c, d);
-      if (!(mn < hi && mx >= lo)) continue;
+    const top = j * nx;
+    // the right-hand corners of one cell are the left-hand corners of the next
+    let b = v[top];
+    let c = v[top + nx];
+    for (let i = 0; i < nx - 1; i++) {
+      const a = b;
+      const d = c;
+      b = v[top + i + 1];
+      c = v[top + nx + i + 1];
+      if (a !== a || b !== b || c !== c || d !== d) continue; // isolines stop at no data
+      const m1 = a < b ? a : b;
+      const m2 = c < d ? c : d;
+      const mn = m1 < m2 ? m1 : m2;
+      const x1 = a > b ? a : b;
+      const x2 = c > d ? c : d;
+      const mx = x1 > x2 ? x1 : x2;
+      if (mn >= hi || mx < lo) continue;
+      // the first level above mn, found from the last cell's (neighbours differ little)
+      while (q < L && sorted[q] <= mn) q++;
+      while (q > 0 && sorted[q - 1] > mn) q--;
       // the levels with a crossing: mn < level <= mx
-      for (let q = 0; q < L; q++) {
-        const level = sorted[q];
-        if (level <= mn) continue;
-        if (level > mx) break;
-        cellSegments(segs[order[q][1]], a, b, c, d, i, j, level, W);
-      }
+      for (let r = q; r < L && sorted[r] <= mx; r++) cellSegments(segs[order[r][1]], a, b, c, d, i, j, sorted[r], W);
     }
   }
   return segs.map((sg) => stitch(sg, 0));
 }
 
-/** The segments of one cell at one level (isolines: no padding, no inset). */
+const SX = new Float64Array(4);
+const SY = new Float64Array(4);
+const SID = new Float64Array(4);
+const STYPE = new Uint8Array(4);
+
+/** The segments of one cell at one level (isolines: no padding, no inset); scratch buffers, no allocation. */
 function cellSegments(seg: Segments, a: number, b: number, c: number, d: number, i: number, j: number, level: number, W: number): void {
   const A = a >= level;
   const B = b >= level;
   const C = c >= level;
   const D = d >= level;
-  const cx: number[] = [];
-  const cy: number[] = [];
-  const cid: number[] = [];
-  const ctype: number[] = [];
-  const hId = (ii: number, jj: number) => 2 * (jj * W + ii);
-  const vId = (ii: number, jj: number) => 2 * (jj * W + ii) + 1;
-  if (A !== B) (cx.push(i + crossT(a, b, level, 0)), cy.push(j), cid.push(hId(i, j)), ctype.push(A ? 1 : 0));
-  if (B !== C) (cx.push(i + 1), cy.push(j + crossT(b, c, level, 0)), cid.push(vId(i + 1, j)), ctype.push(B ? 1 : 0));
-  if (C !== D) (cx.push(i + crossT(d, c, level, 0)), cy.push(j + 1), cid.push(hId(i, j + 1)), ctype.push(C ? 1 : 0));
-  if (D !== A) (cx.push(i), cy.push(j + crossT(a, d, level, 0)), cid.push(vId(i, j)), ctype.push(D ? 1 : 0));
-  if (cx.length === 2) {
-    const x = ctype[0] === 1 ? 0 : 1;
-    push(seg, cid[x], cid[1 - x], cx[x], cy[x], cx[1 - x], cy[1 - x]);
+  const h0 = 2 * (j * W + i);
+  let n = 0;
+  if (A !== B) (SX[n] = i + crossT(a, b, level, 0)), (SY[n] = j), (SID[n] = h0), (STYPE[n++] = A ? 1 : 0);
+  if (B !== C) (SX[n] = i + 1), (SY[n] = j + crossT(b, c, level, 0)), (SID[n] = h0 + 3), (STYPE[n++] = B ? 1 : 0); // vertical edge at i + 1
+  if (C !== D) (SX[n] = i + crossT(d, c, level, 0)), (SY[n] = j + 1), (SID[n] = h0 + 2 * W), (STYPE[n++] = C ? 1 : 0);
+  if (D !== A) (SX[n] = i), (SY[n] = j + crossT(a, d, level, 0)), (SID[n] = h0 + 1), (STYPE[n++] = D ? 1 : 0);
+  if (n === 2) {
+    const x = STYPE[0] === 1 ? 0 : 1;
+    push(seg, SID[x], SID[1 - x], SX[x], SY[x], SX[1 - x], SY[1 - x]);
     return;
   }
   const den = a + c - b - d;
   const centre = Number.isFinite(den) && den !== 0 ? (a * c - b * d) / den : (a + b + c + d) / 4;
   const joined = centre >= level;
   for (let k = 0; k < 4; k++) {
-    if (ctype[k] !== 1) continue;
+    if (STYPE[k] !== 1) continue;
     const e = joined ? (k + 1) % 4 : (k + 3) % 4;
-    push(seg, cid[k], cid[e], cx[k], cy[k], cx[e], cy[e]);
+    push(seg, SID[k], SID[e], SX[k], SY[k], SX[e], SY[e]);
   }
 }
 
