@@ -2,7 +2,7 @@
  * Benchmarks: `npm run bench [-- --sizes 1024,2048,4096 --reps 3]`. On the invented demo margin at
  * each size (bench/inputs.ts), ours and the references timed side by side, interleaved, `reps`
  * repetitions, median (min–max), the ratio beside each figure:
- *  - reading the three GeoTIFFs: ours vs GDAL's reader;
+ *  - reading the three GeoTIFFs: ours (as the CLI reads, with Node's zlib) vs GDAL's reader;
  *  - the derived grids vs the plain-loop floor (one loop writing two Float32 grids), per grid written;
  *  - contouring crustal thickness at 5 levels: ours (traceLevels, one pass) vs d3-contour vs GDAL's
  *    in-memory generator;
@@ -20,6 +20,7 @@ import { contours } from 'd3-contour';
 import { traceLevels } from '../src/contour/marching-squares.js';
 import { derive } from '../src/derive/derive.js';
 import { readGeoTiff } from '../src/io/geotiff-read.js';
+import { nodeInflate } from '../src/cli/load.js';
 import { resolveParams } from '../src/params.js';
 import { runPipeline } from '../src/pipeline.js';
 import { DEMO_PARAMS } from '../fixtures/demo-margin.js';
@@ -90,7 +91,7 @@ for (const n of sizes) {
   const readT: number[] = [];
   let grids = null as null | Awaited<ReturnType<typeof readGeoTiff>>[];
   for (let k = 0; k < reps; k++) {
-    readT.push(await timeAsync(async () => (grids = await Promise.all(bytes.map((b, q) => readGeoTiff(b, files[q], { role: (['top-basement', 'moho', 'seabed'] as const)[q] }))))));
+    readT.push(await timeAsync(async () => (grids = await Promise.all(bytes.map((b, q) => readGeoTiff(b, files[q], { role: (['top-basement', 'moho', 'seabed'] as const)[q], inflate: nodeInflate }))))));
   }
   const gRead = gdalRead(files, reps);
   const gReadSum = gRead ? gRead.reduce((a, b) => a + b, 0) : null;

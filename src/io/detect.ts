@@ -141,6 +141,9 @@ export function toDepthMetres(
   const scale0 = linear?.scale ?? 1;
   const offset0 = linear?.offset ?? 0;
   let total = 0;
+  let negCount = 0;
+  let min1 = Infinity;
+  let max1 = -Infinity;
   for (let k = 0; k < n; k++) {
     const v = raw[k];
     let hit: number | undefined;
@@ -162,21 +165,19 @@ export function toDepthMetres(
         masked[OUT_OF_RANGE] = (masked[OUT_OF_RANGE] ?? 0) + 1;
         total++;
         values[k] = NaN;
-      } else values[k] = x;
+      } else {
+        values[k] = x;
+        // fused: what the sign and range decisions need, in the same pass
+        if (x < 0) negCount++;
+        if (x < min1) min1 = x;
+        if (x > max1) max1 = x;
+      }
     }
   }
   if (total === n) throw new InputError(file, 'holds no data at all (every cell is a no-data value)');
 
   // Sign first (units are judged on magnitudes).
-  let negCount = 0;
-  let count = 0;
-  for (let k = 0; k < n; k++) {
-    const v = values[k];
-    if (v === v) {
-      count++;
-      if (v < 0) negCount++;
-    }
-  }
+  const count = n - total;
   const negFrac = negCount / count;
   let sign: Decided<Sign>;
   const elevMeta = allWords.find((w) => ELEV_WORDS.has(w));
@@ -206,9 +207,11 @@ export function toDepthMetres(
   else units = unitsFromValues(values, role.value, warnings);
 
   const scale = (units.value === 'km' ? 1000 : units.value === 'ft' ? 0.3048 : 1) * (sign.value === 'elevation' ? -1 : 1);
-  let min = Infinity;
-  let max = -Infinity;
+  let min = min1;
+  let max = max1;
   if (scale !== 1) {
+    min = Infinity;
+    max = -Infinity;
     for (let k = 0; k < n; k++) {
       values[k] = values[k] * scale;
       const x = values[k];
@@ -216,15 +219,13 @@ export function toDepthMetres(
         values[k] = NaN;
         masked[OUT_OF_RANGE] = (masked[OUT_OF_RANGE] ?? 0) + 1;
         total++;
+      } else {
+        if (x < min) min = x;
+        if (x > max) max = x;
       }
     }
   }
   if (masked[OUT_OF_RANGE]) warnings.push(`${masked[OUT_OF_RANGE]} values beyond the Float32 range once converted to metres: no data there (damaged values?)`);
-  for (let k = 0; k < n; k++) {
-    const v = values[k];
-    if (v < min) min = v;
-    if (v > max) max = v;
-  }
   if (role.value === 'moho' && max < 3000) warnings.push(`Moho no deeper than ${max.toFixed(0)} m: check units and role`);
   return { values, report: { role, units, sign, noData: { masked, total }, warnings, min, max } };
 }

@@ -4,6 +4,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { readGeoTiff } from '../../src/io/geotiff-read.js';
 import { InputError } from '../../src/io/errors.js';
+import { nodeInflate } from '../../src/cli/load.js';
 
 const dir = new URL('../fixtures/gdal/', import.meta.url);
 const bytes = (f: string) => readFileSync(new URL(f, dir));
@@ -107,5 +108,18 @@ describe('GeoTIFF reader on GDAL-made files', () => {
     expect(err).toBeInstanceOf(InputError);
     expect(err.message).toMatch(/^cut\.tif: /);
     await expect(readGeoTiff(new TextEncoder().encode('x y z\n1 2 3\n'), 'notes.tif')).rejects.toThrow(/notes\.tif: is not a TIFF/);
+  });
+  it("Node's zlib (the CLI's DEFLATE decoder) reads every DEFLATE file exactly as the portable decoder, and refuses the same damage", async () => {
+    for (const f of ['f32_deflate_tiled.tif', 'f64_bigtiff_pred3.tif', 'f32_bigtiff_be.tif', 'i32_3band_pixel.tif', 'f32_sparse.tif']) {
+      const a = await readGeoTiff(bytes(f), f, { role: 'top-basement' });
+      const b = await readGeoTiff(bytes(f), f, { role: 'top-basement', inflate: nodeInflate });
+      expect(Array.from(b.grid.values), f).toEqual(Array.from(a.grid.values));
+    }
+    const damaged = new Uint8Array(bytes('f32_deflate_tiled.tif'));
+    for (let k = 600; k < 700; k += 3) damaged[k] ^= 0x5a;
+    const e1 = await readGeoTiff(damaged, 'd.tif').catch((e) => e);
+    const e2 = await readGeoTiff(damaged, 'd.tif', { inflate: nodeInflate }).catch((e) => e);
+    expect(e1).toBeInstanceOf(InputError);
+    expect(e2).toBeInstanceOf(InputError);
   });
 });

@@ -24,9 +24,13 @@ function allocate(layout: TiffLayout, n: number): BandArray {
 
 /**
  * Decode band 1. `sparseFill` is the value of a block the file leaves out (offset and byte count
- * zero, as GDAL writes empty blocks): its no-data value, else 0.
+ * zero, as GDAL writes empty blocks): its no-data value, else 0. `inflate` may be a faster native
+ * DEFLATE decoder (the CLI passes Node's zlib); it must write within `out` as fflate's does.
  */
-export async function decodeBand(ifd: Ifd, layout: TiffLayout, sparseFill: number): Promise<BandArray> {
+/** A DEFLATE (zlib) block decoder writing into `out`, returning the bytes written. */
+export type Inflate = (input: Uint8Array, out: Uint8Array) => number;
+
+export async function decodeBand(ifd: Ifd, layout: TiffLayout, sparseFill: number, inflate: Inflate = deflateDecode): Promise<BandArray> {
   const { width, height, blockWidth, blockHeight, blocksAcross, compression, predictor, tiled } = layout;
   const bps = layout.bitsPerSample / 8;
   const spp = layout.planar === 1 ? layout.samplesPerPixel : 1;
@@ -60,7 +64,7 @@ export async function decodeBand(ifd: Ifd, layout: TiffLayout, sparseFill: numbe
         buf.set(data.subarray(0, expected));
         got = Math.min(cnt, expected);
       } else if (compression === 5) got = lzwDecode(data, buf);
-      else if (compression === 8 || compression === 32946) got = deflateDecode(data, buf);
+      else if (compression === 8 || compression === 32946) got = inflate(data, buf);
       else if (compression === 32773) got = packBitsDecode(data, buf);
       else {
         const z = zstdDecode(data, expected);
