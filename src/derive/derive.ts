@@ -13,7 +13,7 @@
 
 import { ageFromDepth, type AgeDepthCurve } from '../science/age-depth.js';
 import { LITHOLOGIES, type Lithology } from '../science/compaction.js';
-import { initialSubsidencePerGamma, makeBetaInverter, thermalSubsidence, type McKenzieParams } from '../science/mckenzie.js';
+import { makeBetaInverter, type McKenzieParams } from '../science/mckenzie.js';
 import type { Params } from '../params.js';
 import { DERIVED, type DerivedName } from './grids.js';
 
@@ -82,7 +82,6 @@ export function derive(input: DeriveInput, p: Params): Derived {
   const lith = lithologyOf(p);
   const compaction = p.sedimentMode === 'compaction';
   const mk = mckenzieOf(p);
-  const siPerGamma = initialSubsidencePerGamma(mk);
   const haveAge = riftAge !== null;
   const inverter = haveAge ? makeBetaInverter(riftAge, mk, p.thermalForm) : null;
   if (inverter && !inverter.monotone) warnings.push('McKenzie subsidence is not monotone in β for these parameters: β from subsidence solved cell by cell');
@@ -94,6 +93,22 @@ export function derive(input: DeriveInput, p: Params): Derived {
   const basement = input.basement;
   const moho = input.moho;
   const airyK = 1 / (rm - rc);
+  // the output grids as locals: one lookup each, not one per cell
+  const oAiryResidual = g['airy-residual'];
+  const oAiryThickness = g['airy-thickness'];
+  const oBetaCrust = g['beta-crust'];
+  const oBetaRatio = g['beta-ratio'];
+  const oBetaSubsidence = g['beta-subsidence'];
+  const oCrustalThickness = g['crustal-thickness'];
+  const oOceanicAgeMax = g['oceanic-age-max'];
+  const oOceanicAgeMin = g['oceanic-age-min'];
+  const oOceanicDepthAnomaly = g['oceanic-depth-anomaly'];
+  const oPredictedWaterLoaded = g['predicted-water-loaded'];
+  const oSedimentThickness = g['sediment-thickness'];
+  const oSubsidenceResidual = g['subsidence-residual'];
+  const oWaterDepth = g['water-depth'];
+  const oWaterLoadedBasement = g['water-loaded-basement'];
+  const oGamma = g.gamma;
   const hist = new Uint32Array(1001); // 100 m bins of crustal thickness, for the tc0 suggestion
 
   for (let k = 0; k < n; k++) {
@@ -144,11 +159,11 @@ export function derive(input: DeriveInput, p: Params): Derived {
     const beta = tc === tc ? (tc === 0 ? Infinity : tc0 / tc) : NaN;
     if (beta < 1) flags.betaBelowOne++;
     const gamma = tc === tc ? 1 - tc / tc0 : NaN;
-    g['water-depth'][k] = w;
-    g['sediment-thickness'][k] = s;
-    g['crustal-thickness'][k] = tc;
-    g['beta-crust'][k] = beta;
-    g.gamma[k] = gamma;
+    oWaterDepth[k] = w;
+    oSedimentThickness[k] = s;
+    oCrustalThickness[k] = tc;
+    oBetaCrust[k] = beta;
+    oGamma[k] = gamma;
     if (tc === tc) hist[Math.min(1000, Math.floor(tc / 100))]++;
 
     // Sediment unloading (Watts & Ryan 1976): Y = w + s·(ρm − ρ̄s)/(ρm − ρw).
@@ -162,11 +177,11 @@ export function derive(input: DeriveInput, p: Params): Derived {
       } else rhoS = p.rhoSediment;
       Y = w + (s * (rm - rhoS)) / (rm - rw);
     }
-    g['water-loaded-basement'][k] = Y;
+    oWaterLoadedBasement[k] = Y;
     // Airy: crust implied by the loads, and observed minus implied.
     const tIso = Y === Y ? tc0 - (w * (rm - rw) + s * (rm - rhoS)) * airyK : NaN;
-    g['airy-thickness'][k] = tIso;
-    g['airy-residual'][k] = tc - tIso;
+    oAiryThickness[k] = tIso;
+    oAiryResidual[k] = tc - tIso;
 
     // McKenzie (1978) prediction for β_crust, and β from subsidence.
     let pred = NaN;
@@ -174,18 +189,17 @@ export function derive(input: DeriveInput, p: Params): Derived {
     if (haveAge) {
       if (beta === beta) {
         const be = beta < 1 ? 1 : beta; // β < 1 is outside the model: no stretching predicted
-        const gam = be === Infinity ? 1 : 1 - 1 / be;
-        pred = siPerGamma * gam + thermalSubsidence(be, riftAge, mk, p.thermalForm);
+        pred = inverter!.total(be);
       }
       if (Y === Y) {
         bs = inverter!.invert(Y);
         if (bs !== Infinity && !(Y > 0)) flags.noSubsidence++;
       }
     }
-    g['predicted-water-loaded'][k] = pred;
-    g['subsidence-residual'][k] = Y - pred;
-    g['beta-subsidence'][k] = bs;
-    g['beta-ratio'][k] = beta === Infinity && bs === Infinity ? NaN : bs / beta;
+    oPredictedWaterLoaded[k] = pred;
+    oSubsidenceResidual[k] = Y - pred;
+    oBetaSubsidence[k] = bs;
+    oBetaRatio[k] = beta === Infinity && bs === Infinity ? NaN : bs / beta;
 
     // Indicative oceanic age: widest of both curves over Y ± the depth uncertainty. Raw here (+∞
     // beyond an asymptote); derive/applicability masks it to oceanic crust and caps it at the rift.
@@ -195,9 +209,9 @@ export function derive(input: DeriveInput, p: Params): Derived {
       aMin = Math.min(ageFromDepth(Y - dAge, curve), ageFromDepth(Y - dAge, other));
       aMax = Math.max(ageFromDepth(Y + dAge, curve), ageFromDepth(Y + dAge, other));
     }
-    g['oceanic-age-min'][k] = aMin;
-    g['oceanic-age-max'][k] = aMax;
-    g['oceanic-depth-anomaly'][k] = NaN; // needs the domains and isochrons: derive/applicability
+    oOceanicAgeMin[k] = aMin;
+    oOceanicAgeMax[k] = aMax;
+    oOceanicDepthAnomaly[k] = NaN; // needs the domains and isochrons: derive/applicability
   }
 
   if (flags.mohoAboveBasement > 0.5 * n) {

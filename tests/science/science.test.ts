@@ -117,6 +117,20 @@ describe('properties', () => {
       }
     }
   });
+  it('the grid tables match the direct formulas: S(β) to 1e-4 m, β(Y) to 1e-6 relative for β ≤ 20 (the tables replace per-cell series sums)', () => {
+    for (const form of ['series', 'first-term'] as const) {
+      for (const t of [10, 80, 150]) {
+        const inv = makeBetaInverter(t, MCKENZIE_1978, form);
+        for (let k = 0; k < 400; k++) {
+          const beta = 1 + rnd() * 19;
+          expect(Math.abs(inv.total(beta) - totalSubsidence(beta, t, MCKENZIE_1978, form))).toBeLessThan(1e-4);
+          const Y = totalSubsidence(beta, t, MCKENZIE_1978, form);
+          expect(Math.abs(inv.invert(Y) - beta) / beta).toBeLessThan(1e-6);
+        }
+        expect(inv.total(Infinity)).toBeCloseTo(totalSubsidence(Infinity, t, MCKENZIE_1978, form), 6);
+      }
+    }
+  });
   it('subsidence beyond the β = ∞ value is reported, not clamped', () => {
     const sMax = totalSubsidence(Infinity, 50, MCKENZIE_1978);
     expect(betaFromSubsidence(sMax + 10, 50, MCKENZIE_1978)).toEqual({ beta: Infinity, status: 'beyond-infinite' });
