@@ -8,7 +8,7 @@ import { DOMAIN_STYLES } from '../domains/styles.js';
 import { DOMAIN_NAMES, FLAG_ATYPICAL_OCEANIC, FLAG_BLOCK, FLAG_ENCLOSED_THIN, FLAG_FORCED, FLAG_UNRESOLVED } from '../domains/classify.js';
 import { WGS84 } from '../crs/registry.js';
 import { transformer } from '../crs/transform.js';
-import { writeGeoTiff } from '../io/geotiff-write.js';
+import { writeGeoTiff, type Deflate } from '../io/geotiff-write.js';
 import { DEFAULT_PARAMS, PARAM_SPECS } from '../params.js';
 import type { PipelineResult } from '../pipeline.js';
 import { boundariesGeoJson, boundaryLinesGeoJson, domainsGeoJson, type FeatureCollection } from './geojson.js';
@@ -18,6 +18,8 @@ export interface RunInfo {
   /** ISO time of the run, from the shell (the core reads no clock). */
   readonly time: string;
   readonly tool: 'cli' | 'app';
+  /** A faster zlib compressor for the GeoTIFF tiles where the shell has one (the CLI: Node's zlib). */
+  readonly deflate?: Deflate;
 }
 
 const enc = new TextEncoder();
@@ -33,7 +35,7 @@ export function exportValues(r: PipelineResult, name: string): Float32Array {
 export function gridFiles(r: PipelineResult, run?: RunInfo): Record<string, Uint8Array> {
   const files: Record<string, Uint8Array> = {};
   // provenance in every GeoTIFF: program, version and time (the parameters are in summary.json)
-  const prov = run ? { software: `taperline ${run.version}`, dateTime: tiffTime(run.time) } : {};
+  const prov = run ? { software: `taperline ${run.version}`, dateTime: tiffTime(run.time), deflate: run.deflate } : {};
   const empty = new Set(emptyGrids(r).map((e) => e.name));
   for (const g of DERIVED) {
     if (empty.has(g.name)) continue;
