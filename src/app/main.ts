@@ -60,7 +60,6 @@ const ctx: Ctx = {
   store,
   engine,
   view,
-  raster,
   version: VERSION,
   status: (text, error = false) => store.update({ status: { ...store.state.status, text, error } }),
   newId: () => `f${nextId++}`,

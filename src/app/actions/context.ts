@@ -2,14 +2,12 @@
 
 import type { Engine } from '../engine.js';
 import type { MapView } from '../map/view.js';
-import type { RasterLayer } from '../map/raster.js';
 import type { Store } from '../state.js';
 
 export interface Ctx {
   readonly store: Store;
   readonly engine: Engine;
   readonly view: MapView;
-  readonly raster: RasterLayer;
   readonly version: string;
   status(text: string, error?: boolean): void;
   newId(): string;
