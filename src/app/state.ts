@@ -33,6 +33,8 @@ export interface AppState {
   /** Where the cursor is on the map (lon, lat), for the readout. */
   cursor: [number, number] | null;
   status: { text: string; error: boolean; warnings: number };
+  /** What the last file action moved (a role taken from another file), shown under Data until the next. */
+  filesNote: string | null;
   section: SectionData | null;
 }
 
@@ -55,6 +57,7 @@ export function initialState(): AppState {
     excludePicks: [],
     cursor: null,
     status: { text: 'Starting…', error: false, warnings: 0 },
+    filesNote: null,
     section: null,
   };
 }

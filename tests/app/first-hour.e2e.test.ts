@@ -75,8 +75,9 @@ describe.skipIf(!haveChromium)('the first hour with your own data', () => {
 
   it('a file that takes a role from another says so (the other is set to "not used")', async () => {
     await loadFiles(p.page, { name: 'moho-reprocessed.tif', mimeType: 'image/tiff', buffer: readFileSync('fixtures/demo/moho.tif') }, 'add');
-    await p.page.waitForFunction(() => /moho-reprocessed\.tif is now the moho/.test(document.querySelector('#status')?.textContent ?? ''), null, { timeout: 30_000 });
-    expect(await p.page.locator('#status').textContent()).toMatch(/moho\.tif no longer used/);
+    // said under Data, where it stays until the next file action (the status line moves on to the run)
+    await p.page.waitForFunction(() => /moho-reprocessed\.tif is now the moho/.test(document.querySelector('#files-note')?.textContent ?? ''), null, { timeout: 30_000 });
+    expect(await p.page.locator('#files-note').textContent()).toMatch(/moho\.tif no longer used/);
     const roles = await p.page.evaluate(() => window.__taperline.state.files.filter((f) => /moho/.test(f.name)).map((f) => `${f.name}:${f.role}`).sort());
     expect(roles).toEqual(['moho-reprocessed.tif:moho', 'moho.tif:none']);
   });

@@ -86,7 +86,7 @@ export async function addFile(ctx: Ctx, name: string, bytes: ArrayBuffer, opts: 
     f.role = 'moho';
   }
   const moved = takeRole(ctx, f);
-  store.update({ files: [...store.state.files] });
+  store.update({ files: [...store.state.files], filesNote: moved });
   if (moved) ctx.status(moved);
   return f;
 }
@@ -121,7 +121,7 @@ export function setRole(ctx: Ctx, id: string, role: string): void {
   f.role = role as LoadedFile['role'];
   void reload(ctx, f).then(() => {
     const moved = takeRole(ctx, f);
-    ctx.store.update({ files: [...ctx.store.state.files] });
+    ctx.store.update({ files: [...ctx.store.state.files], filesNote: moved });
     if (moved) ctx.status(moved);
   });
 }
@@ -149,7 +149,7 @@ export function removeFile(ctx: Ctx, id: string): void {
 /** Remove every file and reset the settings to their defaults (the map keeps its view). */
 export function clearProject(ctx: Ctx): void {
   for (const f of ctx.store.state.files) ctx.engine.remove(f.id);
-  ctx.store.update({ files: [], params: {}, paramErrors: {}, excludePicks: [], plan: {}, planResult: null, result: null, section: null });
+  ctx.store.update({ files: [], params: {}, paramErrors: {}, excludePicks: [], plan: {}, planResult: null, result: null, section: null, filesNote: null });
 }
 
 export function newProject(ctx: Ctx): void {

@@ -9,6 +9,7 @@ import { ROLE_LABELS } from '../text/labels.js';
 export function mountFiles(el: HTMLElement, store: Store, actions: Actions): void {
   const render = () => {
     clear(el);
+    if (store.state.filesNote) el.append(h('p', { class: 'warning', id: 'files-note', text: store.state.filesNote }));
     for (const f of store.state.files) {
       const role = h('select', { class: 'role', 'data-file': f.name, title: 'What this file is used as', onchange: (e: Event) => actions.setRole(f.id, (e.target as HTMLSelectElement).value) },
         ...INPUT_ROLES[f.kind].map((r) => h('option', { value: r, text: ROLE_LABELS[r] ?? r, selected: r === f.role })));
@@ -47,6 +48,6 @@ export function mountFiles(el: HTMLElement, store: Store, actions: Actions): voi
     }
     if (!store.state.files.length) el.append(h('p', { class: 'hint', text: 'No files yet: add a top-basement grid and a Moho grid to start.' }));
   };
-  store.subscribe(['files'], render);
+  store.subscribe(['files', 'filesNote'], render);
   render();
 }
