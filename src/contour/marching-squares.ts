@@ -77,59 +77,10 @@ export function traceLevel(grid: GridLike, level: number, fill = false): Lines {
     return fill && x !== x ? -Infinity : x;
   };
   const seg: Segments = { from: [], to: [], pts: [] };
-  // Edge ids on the (padded) lattice: horizontal edge (i,j)-(i+1,j) → 2(jW + i); vertical (i,j)-(i,j+1) → 2(jW + i) + 1.
-  const hId = (i: number, j: number) => 2 * (j * W + i);
-  const vId = (i: number, j: number) => 2 * (j * W + i) + 1;
-  const cx: number[] = new Array(4);
-  const cy: number[] = new Array(4);
-  const cid: number[] = new Array(4);
-  const ctype: number[] = new Array(4); // 1 = exit (above → below along the clockwise walk), 0 = entry
-
   for (let j = 0; j < H - 1; j++) {
     for (let i = 0; i < W - 1; i++) {
-      const a = at(i, j); // top-left
-      const b = at(i + 1, j); // top-right
-      const c = at(i + 1, j + 1); // bottom-right
-      const d = at(i, j + 1); // bottom-left
-      if (!fill && (a !== a || b !== b || c !== c || d !== d)) continue;
-      const A = a >= level;
-      const B = b >= level;
-      const C = c >= level;
-      const D = d >= level;
-      if (A === B && B === C && C === D) continue;
-      // Walk the cell boundary clockwise on screen: top (tl→tr), right (tr→br), bottom (br→bl), left (bl→tl).
-      let n = 0;
-      if (A !== B) {
-        const t = crossT(a, b, level, inset);
-        cx[n] = i + t; cy[n] = j; cid[n] = hId(i, j); ctype[n] = A ? 1 : 0; n++;
-      }
-      if (B !== C) {
-        const t = crossT(b, c, level, inset);
-        cx[n] = i + 1; cy[n] = j + t; cid[n] = vId(i + 1, j); ctype[n] = B ? 1 : 0; n++;
-      }
-      if (C !== D) {
-        const t = crossT(d, c, level, inset); // canonical direction: left to right
-        cx[n] = i + t; cy[n] = j + 1; cid[n] = hId(i, j + 1); ctype[n] = C ? 1 : 0; n++;
-      }
-      if (D !== A) {
-        const t = crossT(a, d, level, inset); // canonical direction: top to bottom
-        cx[n] = i; cy[n] = j + t; cid[n] = vId(i, j); ctype[n] = D ? 1 : 0; n++;
-      }
-      if (n === 2) {
-        const x = ctype[0] === 1 ? 0 : 1; // the exit crossing
-        push(seg, cid[x], cid[1 - x], cx[x], cy[x], cx[1 - x], cy[1 - x]);
-      } else {
-        // Saddle: crossings alternate exit/entry around the cell. Decide whether the centre is above.
-        const den = a + c - b - d;
-        const centre = Number.isFinite(den) && den !== 0 ? (a * c - b * d) / den : (a + b + c + d) / 4;
-        const joined = centre >= level;
-        for (let k = 0; k < 4; k++) {
-          if (ctype[k] !== 1) continue;
-          // Separate above corners: each exit pairs with the entry just before it; joined: just after.
-          const e = joined ? (k + 1) % 4 : (k + 3) % 4;
-          push(seg, cid[k], cid[e], cx[k], cy[k], cx[e], cy[e]);
-        }
-      }
+      // corners: top-left, top-right, bottom-right, bottom-left (NaN is below when filling)
+      cellSegments(seg, at(i, j), at(i + 1, j), at(i + 1, j + 1), at(i, j + 1), i, j, level, W, inset);
     }
   }
   return stitch(seg, pad);
@@ -186,23 +137,33 @@ const SY = new Float64Array(4);
 const SID = new Float64Array(4);
 const STYPE = new Uint8Array(4);
 
-/** The segments of one cell at one level (isolines: no padding, no inset); scratch buffers, no allocation. */
-function cellSegments(seg: Segments, a: number, b: number, c: number, d: number, i: number, j: number, level: number, W: number): void {
+/**
+ * The segments of one cell at one level, into scratch buffers (no allocation). The cell boundary is
+ * walked clockwise on screen: top (tl→tr), right (tr→br), bottom (br→bl), left (bl→tl); a crossing is
+ * an exit (above → below) or an entry. Edge ids on the lattice of width W: horizontal edge
+ * (i,j)-(i+1,j) → 2(jW + i), vertical (i,j)-(i,j+1) → 2(jW + i) + 1. Crossings are computed in a
+ * canonical direction (left to right, top to bottom) so neighbouring cells agree bit for bit.
+ */
+function cellSegments(seg: Segments, a: number, b: number, c: number, d: number, i: number, j: number, level: number, W: number, inset = 0): void {
+  if (a !== a || b !== b || c !== c || d !== d) return; // isolines stop at no data (filling passes −∞ instead)
   const A = a >= level;
   const B = b >= level;
   const C = c >= level;
   const D = d >= level;
+  if (A === B && B === C && C === D) return;
   const h0 = 2 * (j * W + i);
   let n = 0;
-  if (A !== B) (SX[n] = i + crossT(a, b, level, 0)), (SY[n] = j), (SID[n] = h0), (STYPE[n++] = A ? 1 : 0);
-  if (B !== C) (SX[n] = i + 1), (SY[n] = j + crossT(b, c, level, 0)), (SID[n] = h0 + 3), (STYPE[n++] = B ? 1 : 0); // vertical edge at i + 1
-  if (C !== D) (SX[n] = i + crossT(d, c, level, 0)), (SY[n] = j + 1), (SID[n] = h0 + 2 * W), (STYPE[n++] = C ? 1 : 0);
-  if (D !== A) (SX[n] = i), (SY[n] = j + crossT(a, d, level, 0)), (SID[n] = h0 + 1), (STYPE[n++] = D ? 1 : 0);
+  if (A !== B) (SX[n] = i + crossT(a, b, level, inset)), (SY[n] = j), (SID[n] = h0), (STYPE[n++] = A ? 1 : 0);
+  if (B !== C) (SX[n] = i + 1), (SY[n] = j + crossT(b, c, level, inset)), (SID[n] = h0 + 3), (STYPE[n++] = B ? 1 : 0); // vertical edge at i + 1
+  if (C !== D) (SX[n] = i + crossT(d, c, level, inset)), (SY[n] = j + 1), (SID[n] = h0 + 2 * W), (STYPE[n++] = C ? 1 : 0);
+  if (D !== A) (SX[n] = i), (SY[n] = j + crossT(a, d, level, inset)), (SID[n] = h0 + 1), (STYPE[n++] = D ? 1 : 0);
   if (n === 2) {
     const x = STYPE[0] === 1 ? 0 : 1;
     push(seg, SID[x], SID[1 - x], SX[x], SY[x], SX[1 - x], SY[1 - x]);
     return;
   }
+  // Saddle (Nielson & Hamann's asymptotic decider): is the bilinear centre above? Separate above
+  // corners: each exit pairs with the entry just before it; joined: with the one just after.
   const den = a + c - b - d;
   const centre = Number.isFinite(den) && den !== 0 ? (a * c - b * d) / den : (a + b + c + d) / 4;
   const joined = centre >= level;
