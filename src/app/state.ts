@@ -78,11 +78,6 @@ export class Store {
     this.notify(Object.keys(patch) as Key[]);
   }
 
-  /** Say that something inside a slice changed in place (a file's role, say). */
-  touch(...keys: Key[]): void {
-    this.notify(keys);
-  }
-
   subscribe(keys: readonly Key[], fn: Listener): () => void {
     const entry = { keys: new Set(keys), fn };
     this.listeners.push(entry);

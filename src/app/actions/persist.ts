@@ -12,7 +12,7 @@ import { clearAll, saveProject, saveState, type StoredProject } from '../autosav
 import { download } from '../dom.js';
 import type { LoadedFile } from '../engine.js';
 import type { Ctx } from './context.js';
-import { addFile, kindOf } from './files.js';
+import { addFile } from './files.js';
 
 /** What a project file may name: the parameter and planning keys, the map layers. */
 export const PROJECT_SCHEMA = {
@@ -154,4 +154,3 @@ export async function clearLocal(): Promise<void> {
   location.reload();
 }
 
-export { kindOf };

@@ -14,7 +14,6 @@ const table = (rows: Row[]) => h('table', { class: 'props' }, ...rows.map(([a, b
 
 export interface Drawing {
   start(): void;
-  active(): boolean;
 }
 
 export function wireMap(view: MapView, store: Store, actions: Actions, status: (text: string) => void): Drawing {
@@ -101,6 +100,5 @@ export function wireMap(view: MapView, store: Store, actions: Actions, status: (
       map.getCanvas().style.cursor = 'crosshair';
       status('Click points along the section; double-click (or press Enter) to finish, Escape to cancel.');
     },
-    active: () => drawing !== null,
   };
 }
