@@ -8,7 +8,8 @@ import { DEFAULT_READ_BUDGET_MB } from '../io/tiff/layout.js';
 import { dirname, join, resolve, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { InputError } from '../io/errors.js';
-import { outputFiles } from '../export/outputs.js';
+import { gridJobs, outputFiles } from '../export/outputs.js';
+import { writeGeoTiffs } from './tiff-pool.js';
 import { geoPackage } from '../export/gpkg.js';
 import { ParamError, PARAM_SPECS, DEFAULT_PARAMS, resolveParams } from '../params.js';
 import { runPipeline, type PipelineInputs } from '../pipeline.js';
@@ -244,9 +245,14 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
     } else {
       // Node's zlib compresses the GeoTIFF tiles (same zlib format as the portable encoder, several times faster)
       const run = { version: pkg.version, time: new Date().toISOString(), tool: 'cli' as const, deflate: (d: Uint8Array, level: number) => deflateSync(d, { level }) };
-      files = outputFiles(result, run);
+      // GeoTIFFs on worker threads while this thread builds the vector outputs
+      const { jobs, side } = gridJobs(result, run);
+      const tiffs = writeGeoTiffs(result.geometry, jobs);
+      tiffs.catch(() => {}); // awaited below; an early failure must not go unhandled meanwhile
+      const vectors = outputFiles(result, run, {});
       const { default: initSqlJs } = await import('sql.js');
       const gpkg = geoPackage(await initSqlJs(), result, run.time);
+      files = { ...vectors, ...(await tiffs), ...side };
       files['boundaries.gpkg'] = gpkg.bytes;
       if (gpkg.note) process.stderr.write(`note: ${gpkg.note}\n`);
     }

@@ -8,7 +8,7 @@ import { DOMAIN_STYLES } from '../domains/styles.js';
 import { DOMAIN_NAMES, FLAG_ATYPICAL_OCEANIC, FLAG_BLOCK, FLAG_ENCLOSED_THIN, FLAG_FORCED, FLAG_UNRESOLVED } from '../domains/classify.js';
 import { WGS84 } from '../crs/registry.js';
 import { transformer } from '../crs/transform.js';
-import { writeGeoTiff, type Deflate } from '../io/geotiff-write.js';
+import { writeGeoTiff, type Deflate, type TiffWriteOptions } from '../io/geotiff-write.js';
 import { DEFAULT_PARAMS, PARAM_SPECS } from '../params.js';
 import type { PipelineResult } from '../pipeline.js';
 import { boundariesGeoJson, boundaryLinesGeoJson, domainsGeoJson, type FeatureCollection } from './geojson.js';
@@ -32,37 +32,62 @@ export function exportValues(r: PipelineResult, name: string): Float32Array {
   return v;
 }
 
-export function gridFiles(r: PipelineResult, run?: RunInfo): Record<string, Uint8Array> {
-  const files: Record<string, Uint8Array> = {};
+/** One GeoTIFF to write: its path in the output set, its samples and its tags. */
+export interface GridJob {
+  readonly path: string;
+  readonly values: Float32Array | Uint8Array;
+  readonly options: Omit<TiffWriteOptions, 'deflate'>;
+}
+
+/**
+ * The GeoTIFFs of a run as jobs (so a shell can write them on several threads: the CLI does) and
+ * their small side files (.aux.xml category names).
+ */
+export function gridJobs(r: PipelineResult, run?: RunInfo): { jobs: GridJob[]; side: Record<string, Uint8Array> } {
+  const jobs: GridJob[] = [];
   // provenance in every GeoTIFF: program, version and time (the parameters are in summary.json)
-  const prov = run ? { software: `taperline ${run.version}`, dateTime: tiffTime(run.time), deflate: run.deflate } : {};
+  const prov = run ? { software: `taperline ${run.version}`, dateTime: tiffTime(run.time) } : {};
   const empty = new Set(emptyGrids(r).map((e) => e.name));
   for (const g of DERIVED) {
     if (empty.has(g.name)) continue;
-    files[`grids/${g.name}.tif`] = writeGeoTiff(r.geometry, exportValues(r, g.name), {
-      noData: 'nan',
-      unit: g.unit || undefined,
-      description: g.desc,
-      metadata: { APPLIES_OVER: APPLIES_TEXT[g.applies], ...(g.name.startsWith('beta') ? { UNBOUNDED: 'no data where beta is unbounded; unbounded-beta.tif marks those cells' } : {}) },
-      ...prov,
+    jobs.push({
+      path: `grids/${g.name}.tif`,
+      values: exportValues(r, g.name),
+      options: {
+        noData: 'nan',
+        unit: g.unit || undefined,
+        description: g.desc,
+        metadata: { APPLIES_OVER: APPLIES_TEXT[g.applies], ...(g.name.startsWith('beta') ? { UNBOUNDED: 'no data where beta is unbounded; unbounded-beta.tif marks those cells' } : {}) },
+        ...prov,
+      },
     });
   }
   const domainColours = new Map(DOMAIN_STYLES.map((d) => [d.code, d.colour] as const));
-  files['grids/domains.tif'] = writeGeoTiff(r.geometry, r.classified.domains, {
-    ...prov,
-    noData: 0,
-    description: `margin domains: ${DOMAIN_NAMES.map((n, k) => `${k} ${n}`).join('; ')}`,
-    colours: domainColours,
+  jobs.push({
+    path: 'grids/domains.tif',
+    values: r.classified.domains,
+    options: { ...prov, noData: 0, description: `margin domains: ${DOMAIN_NAMES.map((n, k) => `${k} ${n}`).join('; ')}`, colours: domainColours },
   });
-  files['grids/domains.tif.aux.xml'] = categories(DOMAIN_NAMES);
   const unbounded = ['neither', 'zero crust (beta-crust unbounded)', 'subsidence beyond McKenzie beta infinity (continental cells)', 'both'];
-  files['grids/unbounded-beta.tif'] = writeGeoTiff(r.geometry, r.applied.unboundedBeta, {
-    ...prov,
-    description: `unbounded beta: ${unbounded.map((n, k) => `${k} ${n}`).join('; ')}`,
-    colours: new Map([[0, [255, 255, 255]], [1, [230, 57, 70]], [2, [69, 123, 157]], [3, [29, 53, 87]]]),
+  jobs.push({
+    path: 'grids/unbounded-beta.tif',
+    values: r.applied.unboundedBeta,
+    options: {
+      ...prov,
+      description: `unbounded beta: ${unbounded.map((n, k) => `${k} ${n}`).join('; ')}`,
+      colours: new Map([[0, [255, 255, 255]], [1, [230, 57, 70]], [2, [69, 123, 157]], [3, [29, 53, 87]]]),
+    },
   });
-  files['grids/unbounded-beta.tif.aux.xml'] = categories(unbounded);
-  return files;
+  const side = { 'grids/domains.tif.aux.xml': categories(DOMAIN_NAMES), 'grids/unbounded-beta.tif.aux.xml': categories(unbounded) };
+  return { jobs, side };
+}
+
+/** The GeoTIFFs of a run written here, one after another (the app's worker; tests). */
+export function gridFiles(r: PipelineResult, run?: RunInfo): Record<string, Uint8Array> {
+  const { jobs, side } = gridJobs(r, run);
+  const files: Record<string, Uint8Array> = {};
+  for (const j of jobs) files[j.path] = writeGeoTiff(r.geometry, j.values, { ...j.options, deflate: run?.deflate });
+  return { ...files, ...side };
 }
 
 /**
@@ -220,7 +245,11 @@ function classFlagCounts(flags: Uint8Array): Record<string, number> {
   return c;
 }
 
-export function outputFiles(r: PipelineResult, run: RunInfo): Record<string, Uint8Array> {
+/**
+ * Every output file. `grids`: the GeoTIFFs and their side files when the shell writes them itself
+ * (the CLI, on worker threads, from gridJobs); written here otherwise.
+ */
+export function outputFiles(r: PipelineResult, run: RunInfo, grids?: Record<string, Uint8Array>): Record<string, Uint8Array> {
   const bfc = boundariesGeoJson(r);
   const domains = domainsGeoJson(r); // inside the licence when one is given (clipped once, used twice)
   const made = provenance(r, run);
@@ -229,7 +258,7 @@ export function outputFiles(r: PipelineResult, run: RunInfo): Record<string, Uin
     'boundary-lines.geojson': json({ ...boundaryLinesGeoJson(r), generated_by: made }),
     'domains.geojson': json({ ...domains, generated_by: made }),
     ...(r.evidence.licence ? { 'domains-whole-grid.geojson': json({ ...domainsGeoJson(r, 'regional'), generated_by: made }) } : {}),
-    ...gridFiles(r, run),
+    ...(grids ?? gridFiles(r, run)),
   };
   if (r.boundaries.inLicence) {
     files['boundaries-whole-grid.geojson'] = json({ ...boundariesGeoJson(r, 'regional'), generated_by: made });

@@ -209,20 +209,33 @@ function halve(lv: Level, isFloat: boolean): Level {
   const w = Math.ceil(lv.w / 2);
   const h = Math.ceil(lv.h / 2);
   const src = lv.data;
+  const sw = lv.w;
   if (!isFloat) {
     const out = new Uint8Array(w * h);
-    for (let j = 0; j < h; j++) for (let i = 0; i < w; i++) out[j * w + i] = src[2 * j * lv.w + 2 * i];
+    for (let j = 0; j < h; j++) for (let i = 0; i < w; i++) out[j * w + i] = src[2 * j * sw + 2 * i];
     return { w, h, data: out, tiles: [] };
   }
   const out = new Float32Array(w * h);
   for (let j = 0; j < h; j++) {
+    const r0 = 2 * j * sw;
+    const r1 = 2 * j + 1 < lv.h ? r0 + sw : -1; // the second source row, if any
     for (let i = 0; i < w; i++) {
+      const a0 = r0 + 2 * i;
+      const two = 2 * i + 1 < sw; // a second source column
       let s = 0;
       let c = 0;
-      for (let b = 2 * j; b < Math.min(lv.h, 2 * j + 2); b++) {
-        for (let a = 2 * i; a < Math.min(lv.w, 2 * i + 2); a++) {
-          const v = src[b * lv.w + a];
-          if (Number.isFinite(v)) (s += v), c++;
+      let v = src[a0];
+      if (v - v === 0) (s += v), c++; // finite: Infinity - Infinity and NaN - NaN are NaN
+      if (two) {
+        v = src[a0 + 1];
+        if (v - v === 0) (s += v), c++;
+      }
+      if (r1 >= 0) {
+        v = src[r1 + 2 * i];
+        if (v - v === 0) (s += v), c++;
+        if (two) {
+          v = src[r1 + 2 * i + 1];
+          if (v - v === 0) (s += v), c++;
         }
       }
       out[j * w + i] = c ? s / c : NaN;
@@ -231,28 +244,27 @@ function halve(lv: Level, isFloat: boolean): Level {
   return { w, h, data: out, tiles: [] };
 }
 
-/** The level's tiles, row-major, each padded to TILE × TILE with `fill`, predicted and compressed. */
+/** True where typed arrays are little-endian (every platform Node and browsers run on in practice). */
+const HOST_LE = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
+
+/**
+ * The level's tiles, row-major, each padded to TILE × TILE with `fill`, predicted and compressed.
+ * Float32 rows go straight from the grid's bytes into the predictor's byte planes (one pass per row).
+ */
 function tilesOf(lv: Level, isFloat: boolean, fill: number, level: number, deflate: Deflate): Uint8Array[] {
   const across = Math.ceil(lv.w / TILE);
   const down = Math.ceil(lv.h / TILE);
-  const bps = isFloat ? 4 : 1;
-  const rowBytes = TILE * bps;
   const tiles: Uint8Array[] = [];
-  const raw = new Uint8Array(TILE * rowBytes);
-  const rawView = new DataView(raw.buffer);
-  const row = new Uint8Array(rowBytes);
+  const raw = new Uint8Array(TILE * TILE * (isFloat ? 4 : 1));
+  const src = isFloat && HOST_LE ? new Uint8Array(lv.data.buffer, lv.data.byteOffset, lv.data.byteLength) : null;
+  const fillBytes = new Uint8Array(new Float32Array([fill]).buffer);
   for (let tj = 0; tj < down; tj++) {
     for (let ti = 0; ti < across; ti++) {
       for (let r = 0; r < TILE; r++) {
         const j = tj * TILE + r;
-        const base = r * rowBytes;
-        for (let c = 0; c < TILE; c++) {
-          const i = ti * TILE + c;
-          const v = j < lv.h && i < lv.w ? lv.data[j * lv.w + i] : fill;
-          if (isFloat) rawView.setFloat32(base + 4 * c, v, true);
-          else raw[base + c] = v;
-        }
-        if (level > 0) predictRow(raw, base, row, isFloat);
+        if (isFloat && src && level > 0) floatRowPlanes(raw, r * TILE * 4, src, j < lv.h ? j * lv.w : -1, ti * TILE, lv.w, fillBytes);
+        else if (isFloat) floatRowPortable(raw, r * TILE * 4, lv, j, ti * TILE, fill, level > 0);
+        else byteRow(raw, r * TILE, lv, j, ti * TILE, fill, level > 0);
       }
       tiles.push(level > 0 ? deflate(raw, level) : raw.slice());
     }
@@ -261,24 +273,54 @@ function tilesOf(lv: Level, isFloat: boolean, fill: number, level: number, defla
 }
 
 /**
- * In place on one row of a tile. UInt8: horizontal differencing (predictor 2). Float32: the
- * floating-point predictor (TIFF Technical Note 3): the row's samples as big-endian bytes split into
- * byte planes (all most significant bytes first), then byte-wise horizontal differencing.
+ * One Float32 tile row under the floating-point predictor (TIFF Technical Note 3): the samples as
+ * big-endian bytes split into byte planes (all most significant bytes first), then byte-wise
+ * horizontal differencing. `rowStart` is the grid index of the row's first cell (-1: below the grid).
  */
-function predictRow(raw: Uint8Array, base: number, row: Uint8Array, isFloat: boolean): void {
-  if (!isFloat) {
-    for (let c = TILE - 1; c > 0; c--) raw[base + c] = (raw[base + c] - raw[base + c - 1]) & 255;
-    return;
-  }
-  for (let c = 0; c < TILE; c++) {
+function floatRowPlanes(raw: Uint8Array, base: number, src: Uint8Array, rowStart: number, i0: number, w: number, fill: Uint8Array): void {
+  const n = rowStart < 0 ? 0 : Math.max(0, Math.min(TILE, w - i0));
+  let s = 4 * (rowStart + i0);
+  for (let c = 0; c < n; c++, s += 4) {
     // little-endian sample bytes b0..b3 → planes of b3, b2, b1, b0
-    row[c] = raw[base + 4 * c + 3];
-    row[TILE + c] = raw[base + 4 * c + 2];
-    row[2 * TILE + c] = raw[base + 4 * c + 1];
-    row[3 * TILE + c] = raw[base + 4 * c];
+    raw[base + c] = src[s + 3];
+    raw[base + TILE + c] = src[s + 2];
+    raw[base + 2 * TILE + c] = src[s + 1];
+    raw[base + 3 * TILE + c] = src[s];
   }
-  for (let k = row.length - 1; k > 0; k--) row[k] = (row[k] - row[k - 1]) & 255;
-  raw.set(row, base);
+  for (let c = n; c < TILE; c++) {
+    raw[base + c] = fill[3];
+    raw[base + TILE + c] = fill[2];
+    raw[base + 2 * TILE + c] = fill[1];
+    raw[base + 3 * TILE + c] = fill[0];
+  }
+  for (let k = base + 4 * TILE - 1; k > base; k--) raw[k] = (raw[k] - raw[k - 1]) & 255;
+}
+
+/** The same row through a DataView (a big-endian host, or uncompressed output: no predictor). */
+function floatRowPortable(raw: Uint8Array, base: number, lv: Level, j: number, i0: number, fill: number, predict: boolean): void {
+  const view = new DataView(raw.buffer, base, 4 * TILE);
+  for (let c = 0; c < TILE; c++) {
+    const i = i0 + c;
+    view.setFloat32(4 * c, j < lv.h && i < lv.w ? lv.data[j * lv.w + i] : fill, true);
+  }
+  if (!predict) return;
+  const row = raw.slice(base, base + 4 * TILE);
+  for (let c = 0; c < TILE; c++) {
+    raw[base + c] = row[4 * c + 3];
+    raw[base + TILE + c] = row[4 * c + 2];
+    raw[base + 2 * TILE + c] = row[4 * c + 1];
+    raw[base + 3 * TILE + c] = row[4 * c];
+  }
+  for (let k = base + 4 * TILE - 1; k > base; k--) raw[k] = (raw[k] - raw[k - 1]) & 255;
+}
+
+/** One UInt8 tile row, with horizontal differencing (predictor 2) when compressed. */
+function byteRow(raw: Uint8Array, base: number, lv: Level, j: number, i0: number, fill: number, predict: boolean): void {
+  for (let c = 0; c < TILE; c++) {
+    const i = i0 + c;
+    raw[base + c] = j < lv.h && i < lv.w ? lv.data[j * lv.w + i] : fill;
+  }
+  if (predict) for (let c = TILE - 1; c > 0; c--) raw[base + c] = (raw[base + c] - raw[base + c - 1]) & 255;
 }
 
 /** TIFF ColorMap: 3 × 256 SHORTs (all reds, then greens, then blues), 16-bit intensities. */
