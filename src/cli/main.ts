@@ -3,7 +3,6 @@
 
 import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { writeFile } from 'node:fs/promises';
-import { deflateSync } from 'node:zlib';
 import { DEFAULT_READ_BUDGET_MB } from '../io/tiff/layout.js';
 import { dirname, join, resolve, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -243,9 +242,8 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
       };
       for (const w of sp.plan.warnings) process.stderr.write(`warning: ${w}\n`);
     } else {
-      // Node's zlib compresses the GeoTIFF tiles (same zlib format as the portable encoder, several times faster)
-      const run = { version: pkg.version, time: new Date().toISOString(), tool: 'cli' as const, deflate: (d: Uint8Array, level: number) => deflateSync(d, { level }) };
-      // GeoTIFFs on worker threads while this thread builds the vector outputs
+      const run = { version: pkg.version, time: new Date().toISOString(), tool: 'cli' as const };
+      // GeoTIFFs on worker threads (with Node's zlib) while this thread builds the vector outputs
       const { jobs, side } = gridJobs(result, run);
       const tiffs = writeGeoTiffs(result.geometry, jobs);
       tiffs.catch(() => {}); // awaited below; an early failure must not go unhandled meanwhile

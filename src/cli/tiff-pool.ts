@@ -10,12 +10,12 @@ import { Worker } from 'node:worker_threads';
 import type { GridJob } from '../export/outputs.js';
 import type { GridGeometry } from '../grid/geometry.js';
 
+/** One job as posted to a worker (a worker has one job at a time, so replies need no id). */
 export interface TiffJobMessage extends Omit<GridJob, 'path'> {
-  readonly id: number;
   readonly geometry: GridGeometry;
 }
 
-type Reply = { id: number; bytes: Uint8Array } | { id: number; error: string };
+type Reply = { bytes: Uint8Array } | { error: string };
 
 export function poolThreads(): number {
   return Math.max(1, Math.min(4, availableParallelism()));
@@ -31,12 +31,11 @@ export async function writeGeoTiffs(geometry: GridGeometry, jobs: readonly GridJ
     await Promise.all(
       workers.map(async (w) => {
         while (next < jobs.length) {
-          const id = next++;
-          const { path, values, options } = jobs[id];
+          const { path, values, options } = jobs[next++];
           const reply = await new Promise<Reply>((resolve, reject) => {
             w.once('message', resolve);
             w.once('error', reject);
-            w.postMessage({ id, geometry, values, options } satisfies TiffJobMessage);
+            w.postMessage({ geometry, values, options } satisfies TiffJobMessage);
           });
           w.removeAllListeners('error');
           if ('error' in reply) throw new Error(`writing ${path}: ${reply.error}`);

@@ -13,8 +13,8 @@ const deflate = (d: Uint8Array, level: number) => deflateSync(d, { level });
 parentPort!.on('message', (m: TiffJobMessage) => {
   try {
     const bytes = writeGeoTiff(m.geometry, m.values, { ...m.options, deflate });
-    parentPort!.postMessage({ id: m.id, bytes }, [bytes.buffer as ArrayBuffer]);
+    parentPort!.postMessage({ bytes }, [bytes.buffer as ArrayBuffer]);
   } catch (err) {
-    parentPort!.postMessage({ id: m.id, error: (err as Error).message });
+    parentPort!.postMessage({ error: (err as Error).message });
   }
 });

@@ -8,7 +8,7 @@ import { DOMAIN_STYLES } from '../domains/styles.js';
 import { DOMAIN_NAMES, FLAG_ATYPICAL_OCEANIC, FLAG_BLOCK, FLAG_ENCLOSED_THIN, FLAG_FORCED, FLAG_UNRESOLVED } from '../domains/classify.js';
 import { WGS84 } from '../crs/registry.js';
 import { transformer } from '../crs/transform.js';
-import { writeGeoTiff, type Deflate, type TiffWriteOptions } from '../io/geotiff-write.js';
+import { writeGeoTiff, type TiffWriteOptions } from '../io/geotiff-write.js';
 import { DEFAULT_PARAMS, PARAM_SPECS } from '../params.js';
 import type { PipelineResult } from '../pipeline.js';
 import { boundariesGeoJson, boundaryLinesGeoJson, domainsGeoJson, type FeatureCollection } from './geojson.js';
@@ -18,8 +18,6 @@ export interface RunInfo {
   /** ISO time of the run, from the shell (the core reads no clock). */
   readonly time: string;
   readonly tool: 'cli' | 'app';
-  /** A faster zlib compressor for the GeoTIFF tiles where the shell has one (the CLI: Node's zlib). */
-  readonly deflate?: Deflate;
 }
 
 const enc = new TextEncoder();
@@ -86,7 +84,7 @@ export function gridJobs(r: PipelineResult, run?: RunInfo): { jobs: GridJob[]; s
 export function gridFiles(r: PipelineResult, run?: RunInfo): Record<string, Uint8Array> {
   const { jobs, side } = gridJobs(r, run);
   const files: Record<string, Uint8Array> = {};
-  for (const j of jobs) files[j.path] = writeGeoTiff(r.geometry, j.values, { ...j.options, deflate: run?.deflate });
+  for (const j of jobs) files[j.path] = writeGeoTiff(r.geometry, j.values, j.options);
   return { ...files, ...side };
 }
 

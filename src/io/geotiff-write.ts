@@ -247,23 +247,32 @@ function halve(lv: Level, isFloat: boolean): Level {
 /** True where typed arrays are little-endian (every platform Node and browsers run on in practice). */
 const HOST_LE = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
 
+/** A Float32 level's samples as little-endian bytes: a view of them, or a copy on a big-endian host. */
+function littleEndianBytes(data: Float32Array): Uint8Array {
+  if (HOST_LE) return new Uint8Array(data.buffer, data.byteOffset, data.byteLength);
+  const out = new Uint8Array(data.length * 4);
+  const view = new DataView(out.buffer);
+  for (let k = 0; k < data.length; k++) view.setFloat32(4 * k, data[k], true);
+  return out;
+}
+
 /**
  * The level's tiles, row-major, each padded to TILE × TILE with `fill`, predicted and compressed.
- * Float32 rows go straight from the grid's bytes into the predictor's byte planes (one pass per row).
+ * Float32 rows go straight from the grid's bytes into the tile (one pass per row).
  */
 function tilesOf(lv: Level, isFloat: boolean, fill: number, level: number, deflate: Deflate): Uint8Array[] {
   const across = Math.ceil(lv.w / TILE);
   const down = Math.ceil(lv.h / TILE);
   const tiles: Uint8Array[] = [];
   const raw = new Uint8Array(TILE * TILE * (isFloat ? 4 : 1));
-  const src = isFloat && HOST_LE ? new Uint8Array(lv.data.buffer, lv.data.byteOffset, lv.data.byteLength) : null;
+  const src = isFloat ? littleEndianBytes(lv.data as Float32Array) : null;
   const fillBytes = new Uint8Array(new Float32Array([fill]).buffer);
+  if (!HOST_LE) fillBytes.reverse();
   for (let tj = 0; tj < down; tj++) {
     for (let ti = 0; ti < across; ti++) {
       for (let r = 0; r < TILE; r++) {
         const j = tj * TILE + r;
-        if (isFloat && src && level > 0) floatRowPlanes(raw, r * TILE * 4, src, j < lv.h ? j * lv.w : -1, ti * TILE, lv.w, fillBytes);
-        else if (isFloat) floatRowPortable(raw, r * TILE * 4, lv, j, ti * TILE, fill, level > 0);
+        if (src) floatRow(raw, r * TILE * 4, src, j < lv.h ? j * lv.w : -1, ti * TILE, lv.w, fillBytes, level > 0);
         else byteRow(raw, r * TILE, lv, j, ti * TILE, fill, level > 0);
       }
       tiles.push(level > 0 ? deflate(raw, level) : raw.slice());
@@ -273,12 +282,18 @@ function tilesOf(lv: Level, isFloat: boolean, fill: number, level: number, defla
 }
 
 /**
- * One Float32 tile row under the floating-point predictor (TIFF Technical Note 3): the samples as
- * big-endian bytes split into byte planes (all most significant bytes first), then byte-wise
- * horizontal differencing. `rowStart` is the grid index of the row's first cell (-1: below the grid).
+ * One Float32 tile row from little-endian sample bytes; `rowStart` is the grid index of the row's
+ * first cell (-1: below the grid), cells past the grid take `fill` (its little-endian bytes).
+ * Predicted: the floating-point predictor (TIFF Technical Note 3): the samples as big-endian bytes
+ * split into byte planes (all most significant bytes first), then byte-wise horizontal differencing.
  */
-function floatRowPlanes(raw: Uint8Array, base: number, src: Uint8Array, rowStart: number, i0: number, w: number, fill: Uint8Array): void {
+function floatRow(raw: Uint8Array, base: number, src: Uint8Array, rowStart: number, i0: number, w: number, fill: Uint8Array, predict: boolean): void {
   const n = rowStart < 0 ? 0 : Math.max(0, Math.min(TILE, w - i0));
+  if (!predict) {
+    if (n) raw.set(src.subarray(4 * (rowStart + i0), 4 * (rowStart + i0 + n)), base);
+    for (let c = n; c < TILE; c++) raw.set(fill, base + 4 * c);
+    return;
+  }
   let s = 4 * (rowStart + i0);
   for (let c = 0; c < n; c++, s += 4) {
     // little-endian sample bytes b0..b3 → planes of b3, b2, b1, b0
@@ -292,24 +307,6 @@ function floatRowPlanes(raw: Uint8Array, base: number, src: Uint8Array, rowStart
     raw[base + TILE + c] = fill[2];
     raw[base + 2 * TILE + c] = fill[1];
     raw[base + 3 * TILE + c] = fill[0];
-  }
-  for (let k = base + 4 * TILE - 1; k > base; k--) raw[k] = (raw[k] - raw[k - 1]) & 255;
-}
-
-/** The same row through a DataView (a big-endian host, or uncompressed output: no predictor). */
-function floatRowPortable(raw: Uint8Array, base: number, lv: Level, j: number, i0: number, fill: number, predict: boolean): void {
-  const view = new DataView(raw.buffer, base, 4 * TILE);
-  for (let c = 0; c < TILE; c++) {
-    const i = i0 + c;
-    view.setFloat32(4 * c, j < lv.h && i < lv.w ? lv.data[j * lv.w + i] : fill, true);
-  }
-  if (!predict) return;
-  const row = raw.slice(base, base + 4 * TILE);
-  for (let c = 0; c < TILE; c++) {
-    raw[base + c] = row[4 * c + 3];
-    raw[base + TILE + c] = row[4 * c + 2];
-    raw[base + 2 * TILE + c] = row[4 * c + 1];
-    raw[base + 3 * TILE + c] = row[4 * c];
   }
   for (let k = base + 4 * TILE - 1; k > base; k--) raw[k] = (raw[k] - raw[k - 1]) & 255;
 }
