@@ -10,7 +10,7 @@ import { cellAreas, rasterizeRings } from './grid/cell-area.js';
 import { extentOf, sameGeometry, xToCol, yToRow, type GridGeometry } from './grid/geometry.js';
 import type { Grid } from './grid/grid.js';
 import { resample, sampleBilinear } from './grid/resample.js';
-import { derive, type Derived } from './derive/derive.js';
+import { derive, gridOf, type Derived } from './derive/derive.js';
 import { classify, FORCE_CONTINENTAL, FORCE_OCEANIC, FORCE_TRANSITION, isContinentalDomain, type Classified } from './domains/classify.js';
 import { applyDomains, type Applied } from './derive/applicability.js';
 import { nearestIsochronAge } from './derive/isochron-age.js';
@@ -60,6 +60,12 @@ export interface PipelineOptions {
   readonly cache?: PipelineCache;
   /** Ids of picks the user excluded: shown and checked, never used to place a line or as control. */
   readonly excludePicks?: readonly string[];
+  /**
+   * A one-shot batch run: only these derived grids are kept in the result (with those the run itself
+   * needs, derive NEEDED), and each is masked to its domains in place rather than copied, so the run
+   * holds one copy of each kept grid and none of the others. Not with `cache` (that reuses raw grids).
+   */
+  readonly keepGrids?: ReadonlySet<DerivedName>;
 }
 
 /** Parameters that only affect domains and lines: changing them does not recompute the derived grids. */
@@ -92,10 +98,10 @@ export interface DomainArea {
 export interface PipelineResult {
   readonly params: Params;
   readonly geometry: GridGeometry;
-  /** Raw derived grids (every model over every cell; may hold ±∞): for reuse, never for display. */
+  /** Raw derived grids (every model over every cell; may hold ±∞): for reuse, never for display. In a keepGrids run: the masked grids themselves. */
   readonly derived: Derived;
-  /** The derived grids as shown and exported: each masked to the domains where its model applies, no ±∞. */
-  readonly grids: Record<DerivedName, Float32Array>;
+  /** The derived grids as shown and exported: each masked to the domains where its model applies, no ±∞. Every one, unless keepGrids chose. */
+  readonly grids: Partial<Record<DerivedName, Float32Array>>;
   readonly applied: Applied;
   readonly classified: Classified;
   /** Consistency checks of every pick (excluded ones included). */
@@ -172,7 +178,8 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   const seabed = reuse ? reuse.seabedA : onAnalysis(inputs.seabed);
 
   progress('derived grids', 0.15);
-  const derived = reuse ? reuse.derived : derive({ seabed, basement: basementValues, moho }, params);
+  if (options.keepGrids && options.cache) throw new Error('runPipeline: keepGrids is for one-shot runs, not with a cache');
+  const derived = reuse ? reuse.derived : derive({ seabed, basement: basementValues, moho }, params, options.keepGrids);
   if (options.cache && !reuse) {
     options.cache.entry = { basement: basementValues, moho: inputs.moho, seabed: inputs.seabed ?? null, key, derived, mohoA: moho, seabedA: seabed, warnings: [...warnings] };
   }
@@ -198,7 +205,7 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   let oceanward: Oceanward;
   if (params.oceanwardAzimuth !== null) oceanward = oceanwardFromAzimuth(params.oceanwardAzimuth);
   else {
-    const fit = oceanwardFromDepth(geometry, seabed ? derived.grids['water-loaded-basement'] : basementValues);
+    const fit = oceanwardFromDepth(geometry, seabed ? gridOf(derived.grids, 'water-loaded-basement') : basementValues);
     if (fit) oceanward = fit;
     else {
       oceanward = oceanwardFromAzimuth(90);
@@ -235,7 +242,7 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     : [];
 
   progress('domains', 0.55);
-  const tcRaw = derived.grids['crustal-thickness'];
+  const tcRaw = gridOf(derived.grids, 'crustal-thickness');
   const tc = params.smoothCells > 0 ? smoothGrid(tcRaw, geometry.nx, geometry.ny, params.smoothCells) : tcRaw;
   const calibrate = (kind: Pick['kind'], fallback: number) => {
     const sel = picks.filter((q) => q.kind === kind);
@@ -268,7 +275,7 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   }
   const valid = new Uint8Array(n);
   const b = basementValues;
-  const sed = derived.grids['sediment-thickness'];
+  const sed = gridOf(derived.grids, 'sediment-thickness');
   // a cell has data when its basement does and, with a seabed grid, its seabed and sediment do (no pick error)
   for (let k = 0; k < n; k++) valid[k] = b[k] === b[k] && (!seabed || sed[k] === sed[k]) ? 1 : 0;
   // geodesic cell areas depend on the geometry only: reuse them between interactive runs
@@ -302,7 +309,7 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
 
   // The grids as shown and exported: each model only where it applies.
   const isoAge = isochrons.length && seabed ? nearestIsochronAge(geometry, isochrons) : null;
-  const applied = applyDomains(derived, classified.domains, params, isoAge);
+  const applied = applyDomains(derived, classified.domains, params, isoAge, Boolean(options.keepGrids));
   warnings.push(...applied.warnings);
 
   progress('areas', 0.7);
@@ -338,8 +345,8 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     seismicLines: lines.flatMap((l) => l.coords).map((c) => simplifyPath(c, 1)),
     isochrons,
     licence: licence ? licence.map((r) => simplifyPath(r, 1)) : null,
-    oceanicAgeMin: seabed ? applied.grids['oceanic-age-min'] : null,
-    oceanicAgeMax: seabed ? applied.grids['oceanic-age-max'] : null,
+    oceanicAgeMin: seabed ? gridOf(applied.grids, 'oceanic-age-min') : null,
+    oceanicAgeMax: seabed ? gridOf(applied.grids, 'oceanic-age-max') : null,
   });
   for (const m of boundaries.missing) warnings.push(m.reason);
   for (const s of boundaries.onlap.skipped) warnings.push(`onlap pick ${s.id} not used: ${s.reason}`);

@@ -155,16 +155,16 @@ describe('demo scenario: physics agrees with the tool’s own models', async () 
   });
 
   it('no cell subsides beyond McKenzie’s β = ∞', () => {
-    const bs = r.derived.grids['beta-subsidence'];
+    const bs = r.derived.grids['beta-subsidence']!;
     let inf = 0;
     for (let k = 0; k < bs.length; k++) if (bs[k] === Infinity) inf++;
     expect(inf).toBe(0);
     const limit = totalSubsidence(Infinity, 110, MCKENZIE, 'series');
-    expect(r.derived.grids['water-loaded-basement'].reduce((m, v) => (v > m ? v : m), -Infinity)).toBeLessThan(limit);
+    expect(r.derived.grids['water-loaded-basement']!.reduce((m, v) => (v > m ? v : m), -Infinity)).toBeLessThan(limit);
   });
 
   it('the median subsidence residual over the continental domains is within ±100 m of zero', () => {
-    const res = r.grids['subsidence-residual'];
+    const res = r.grids['subsidence-residual']!;
     const vals: number[] = [];
     for (let k = 0; k < res.length; k++) if (res[k] === res[k]) vals.push(res[k]);
     expect(vals.length).toBeGreaterThan(50_000);
@@ -172,7 +172,7 @@ describe('demo scenario: physics agrees with the tool’s own models', async () 
   });
 
   it('β from subsidence agrees with β from thickness, except where the stretching is depth-dependent by design', () => {
-    const ratio = r.grids['beta-ratio'];
+    const ratio = r.grids['beta-ratio']!;
     const away: number[] = [];
     const dds: number[] = [];
     for (let k = 0; k < ratio.length; k++) {
@@ -188,7 +188,7 @@ describe('demo scenario: physics agrees with the tool’s own models', async () 
   });
 
   it('the water-loaded oceanic basement lies within ±150 m of GDH1 at the isochron ages, along the isochrons', () => {
-    const Y = { geometry: g, values: r.grids['water-loaded-basement'] };
+    const Y = { geometry: g, values: r.grids['water-loaded-basement']! };
     let compared = 0;
     for (const iso of r.evidence.isochrons) {
       for (const [x, y] of iso.coords) {
@@ -202,7 +202,7 @@ describe('demo scenario: physics agrees with the tool’s own models', async () 
   });
 
   it('oceanic ages are never older than the rift, and oceanic crust lies oceanward of the boundary', () => {
-    const aMax = r.grids['oceanic-age-max'];
+    const aMax = r.grids['oceanic-age-max']!;
     for (let k = 0; k < aMax.length; k += 7) if (aMax[k] === aMax[k]) expect(aMax[k]).toBeLessThanOrEqual(110);
     let wrong = 0;
     let oceanic = 0;

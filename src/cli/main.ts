@@ -18,6 +18,7 @@ import { loadGrid, loadVectors } from './load.js';
 import { DEFAULT_PLAN, PLAN_SPECS, resolvePlan } from '../survey/params.js';
 import { planFromResult } from '../survey/run.js';
 import { surveyCsv, surveyGeoJson } from '../export/survey.js';
+import { DEFAULT_WRITTEN, DERIVED, parseGridList, type DerivedName } from '../derive/grids.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const pkg = JSON.parse(readFileSync(join(here, '../../package.json'), 'utf8')) as { version: string };
@@ -27,6 +28,10 @@ const paramLines = PARAM_SPECS.map((s) => {
   const def = d === null ? 'none' : Array.isArray(s.choices) ? String(d) : `${d}${s.unit ? ' ' + s.unit : ''}`;
   return `    ${s.key.padEnd(22)} ${s.doc} (default ${def}${s.choices ? `; one of ${s.choices.join(', ')}` : ''})`;
 }).join('\n');
+
+const optInLines = DERIVED.filter((d) => 'optIn' in d)
+  .map((d) => `    ${d.name.padEnd(24)} = ${(d as { optIn: string }).optIn}`)
+  .join('\n');
 
 const planLines = PLAN_SPECS.map((s) => {
   const d = DEFAULT_PLAN[s.key];
@@ -39,7 +44,7 @@ Usage:
   taperline synth --top-basement F --moho F [--seabed F] [options]
   taperline plan --top-basement F --moho F [--seabed F] [--existing F] [--spacing KM]
                  [--overhang-landward KM] [--overhang-oceanward KM] [synth options]
-  taperline demo [--out DIR] [--size NX[xNY]]
+  taperline demo [--out DIR] [--size NX[xNY]] [--grids LIST]
   taperline --help | --version
 
 synth: derive crustal thickness, β, γ, isostatic and subsidence grids, margin domains and the named
@@ -65,6 +70,12 @@ boundaries from depth grids (GeoTIFF or XYZ text; metres or km, depth or elevati
   --ROLE-depth               accept a grid whose name or tags look like two-way time
   --read-budget-mb N   memory one grid file may take while read (default ${DEFAULT_READ_BUDGET_MB}); a
                        file declaring more is refused before anything is allocated
+  --grids LIST         derived grids to write: default, all, or names (comma-separated, combinable:
+                       default,gamma). The default leaves out six grids that are one raster-calculator
+                       step from a written grid or an input, to save time and memory on large grids
+                       (only the grids written are kept in memory); each is written on request:
+${optInLines}
+                       demo writes all of them unless told otherwise
 
 plan: propose 2D seismic lines across the continent–ocean transition (a planning aid: marine
 surveys need permits, environmental mitigation and qualified operators). Same inputs as synth, plus
@@ -95,8 +106,8 @@ disagree with their neighbours or lie far from the uncalibrated line are listed 
 Writes DIR/boundaries.geojson (inside the licence when one is given; then also
 boundaries-whole-grid.geojson), DIR/boundary-lines.geojson (one feature per continuous line; likewise),
 DIR/domains.geojson, DIR/boundaries.gpkg (every vector layer in WGS 84 and in the analysis CRS),
-DIR/grids/<name>.tif (one cloud-optimized Float32 GeoTIFF per derived grid, metres unless stated,
-each no data outside the domains where its model applies; domains.tif and unbounded-beta.tif as
+DIR/grids/<name>.tif (one cloud-optimized Float32 GeoTIFF per derived grid written, see --grids;
+metres unless stated, each no data outside the domains where its model applies; domains.tif and unbounded-beta.tif as
 UInt8 with colour tables) and DIR/summary.json (parameters, inputs with sha256, detections, the rule
 of every grid, flagged cells, areas, lengths, suspect picks, warnings); a grid with no value anywhere
 is not written (listed in the summary). Every field: docs/outputs.md. Files appear only when the run
@@ -135,7 +146,7 @@ function parseArgs(argv: string[]): { command: string; flags: Map<string, string
 const GRID_ROLES = ['seabed', 'top-basement', 'moho'] as const;
 const PLAN_FLAGS = ['existing', 'spacing', 'overhang-landward', 'overhang-oceanward'];
 const KNOWN = new Set([
-  'top-basement', 'moho', 'seabed', 'licence', 'lines', 'picks', 'isochrons', 'crust', 'params', 'out', 'exclude-pick', 'read-budget-mb',
+  'top-basement', 'moho', 'seabed', 'licence', 'lines', 'picks', 'isochrons', 'crust', 'params', 'out', 'exclude-pick', 'read-budget-mb', 'grids',
   ...GRID_ROLES.flatMap((r) => [`${r}-units`, `${r}-sign`, `${r}-nodata`, `${r}-crs`, `${r}-depth`]),
 ]);
 
@@ -173,8 +184,20 @@ function gridOptions(flags: Map<string, string | true>, role: (typeof GRID_ROLES
   return o;
 }
 
-async function synth(flags: Map<string, string | true>, out: string, mode: 'synth' | 'plan' = 'synth'): Promise<void> {
+function gridList(flags: Map<string, string | true>, fallback: readonly DerivedName[]): readonly DerivedName[] {
+  const v = str(flags, 'grids');
+  if (v === undefined) return fallback;
+  try {
+    return parseGridList(v);
+  } catch (err) {
+    throw new UsageError(`--grids: ${(err as Error).message}`);
+  }
+}
+
+async function synth(flags: Map<string, string | true>, out: string, mode: 'synth' | 'plan' = 'synth', defaultGrids: readonly DerivedName[] = DEFAULT_WRITTEN): Promise<void> {
   for (const k of flags.keys()) if (!KNOWN.has(k) && !(mode === 'plan' && PLAN_FLAGS.includes(k))) throw new UsageError(`unknown option --${k}`);
+  if (mode === 'plan' && flags.has('grids')) throw new UsageError('--grids is for synth (plan writes no grids)');
+  const grids = gridList(flags, defaultGrids);
   const basementPath = str(flags, 'top-basement');
   const mohoPath = str(flags, 'moho');
   if (!basementPath || !mohoPath) throw new UsageError('synth needs --top-basement F and --moho F');
@@ -225,42 +248,51 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
       planParams[key] = Number(v);
     }
   }
+  const exclude = str(flags, 'exclude-pick');
+  const excludePicks = exclude ? exclude.split(',').map((q) => q.trim()).filter(Boolean) : [];
   let result;
-  let files: Record<string, Uint8Array>;
   try {
     resolvePlan(planParams); // planning keys are checked in synth too (they share the params file)
     resolveParams(pipelineParams, [...planKeys]); // unknown keys, with the nearest known one suggested
-    const exclude = str(flags, 'exclude-pick');
-    const excludePicks = exclude ? exclude.split(',').map((q) => q.trim()).filter(Boolean) : [];
-    result = runPipeline(inputs, { params: pipelineParams, excludePicks });
-    if (mode === 'plan') {
-      const sp = planFromResult(result, planParams);
-      const enc = new TextEncoder();
-      files = {
-        'survey-lines.geojson': enc.encode(JSON.stringify(surveyGeoJson(sp, result.geometry.crs), null, 1) + '\n'),
-        'survey-lines.csv': enc.encode(surveyCsv(sp, result.geometry.crs)),
-      };
-      for (const w of sp.plan.warnings) process.stderr.write(`warning: ${w}\n`);
-    } else {
-      const run = { version: pkg.version, time: new Date().toISOString(), tool: 'cli' as const };
-      // GeoTIFFs on worker threads (with Node's zlib) while this thread builds the vector outputs
-      const { jobs, side } = gridJobs(result, run);
-      const tiffs = writeGeoTiffs(result.geometry, jobs);
-      tiffs.catch(() => {}); // awaited below; an early failure must not go unhandled meanwhile
-      const vectors = outputFiles(result, run, {});
-      const { default: initSqlJs } = await import('sql.js');
-      const gpkg = geoPackage(await initSqlJs(), result, run.time);
-      files = { ...vectors, ...(await tiffs), ...side };
-      files['boundaries.gpkg'] = gpkg.bytes;
-      if (gpkg.note) process.stderr.write(`note: ${gpkg.note}\n`);
-    }
+    // a batch synth keeps only the grids it writes, masked in place (plan reads every grid for its sections)
+    result = runPipeline(inputs, { params: pipelineParams, excludePicks, keepGrids: mode === 'synth' ? new Set(grids) : undefined });
   } catch (err) {
     if (err instanceof ParamError || (err instanceof Error && /^plan parameter/.test(err.message))) throw new InputError(paramsPath ?? 'parameters', err.message);
     throw err;
   }
-  await writeAtomically(out, files);
+  const r = result;
+  let planWarnings: string[] = [];
+  const count = await writeAtomically(out, async (put) => {
+    if (mode === 'plan') {
+      let sp;
+      try {
+        sp = planFromResult(r, planParams);
+      } catch (err) {
+        if (err instanceof Error && /^plan parameter/.test(err.message)) throw new InputError(paramsPath ?? 'parameters', err.message);
+        throw err;
+      }
+      const enc = new TextEncoder();
+      await put('survey-lines.geojson', enc.encode(JSON.stringify(surveyGeoJson(sp, r.geometry.crs), null, 1) + '\n'));
+      await put('survey-lines.csv', enc.encode(surveyCsv(sp, r.geometry.crs)));
+      planWarnings = sp.plan.warnings;
+      return;
+    }
+    const run = { version: pkg.version, time: new Date().toISOString(), tool: 'cli' as const, grids };
+    // GeoTIFFs on worker threads (with Node's zlib), each written to disk as it is done, while this
+    // thread builds the vector outputs
+    const { jobs, side } = gridJobs(r, run);
+    const tiffs = writeGeoTiffs(r.geometry, jobs, undefined, put);
+    tiffs.catch(() => {}); // awaited below; an early failure must not go unhandled meanwhile
+    for (const [rel, bytes] of Object.entries({ ...outputFiles(r, run, {}), ...side })) await put(rel, bytes);
+    const { default: initSqlJs } = await import('sql.js');
+    const gpkg = geoPackage(await initSqlJs(), r, run.time);
+    await put('boundaries.gpkg', gpkg.bytes);
+    if (gpkg.note) process.stderr.write(`note: ${gpkg.note}\n`);
+    await tiffs;
+  });
+  for (const w of planWarnings) process.stderr.write(`warning: ${w}\n`);
   for (const w of result.warnings) process.stderr.write(`warning: ${w}\n`);
-  process.stdout.write(`wrote ${Object.keys(files).length} files to ${out}\n`);
+  process.stdout.write(`wrote ${count} files to ${out}\n`);
 }
 
 const MANIFEST = '.taperline-outputs';
@@ -272,7 +304,7 @@ const MANIFEST = '.taperline-outputs';
  * are removed too; a signal mid-write removes this run's temporary folder before exiting. An output
  * folder that cannot be written gives one line naming it.
  */
-async function writeAtomically(out: string, files: Record<string, Uint8Array>): Promise<void> {
+async function writeAtomically(out: string, produce: (put: (rel: string, bytes: Uint8Array) => Promise<void>) => Promise<void>): Promise<number> {
   const tmp = join(out, `.taperline-tmp-${process.pid}`);
   const onSignal = (sig: NodeJS.Signals) => {
     rmSync(tmp, { recursive: true, force: true });
@@ -284,24 +316,28 @@ async function writeAtomically(out: string, files: Record<string, Uint8Array>): 
   try {
     makeDir(out);
     for (const name of readdirSync(out)) if (name.startsWith('.taperline-tmp-')) rmSync(join(out, name), { recursive: true, force: true });
-    // written asynchronously, so a signal arriving meanwhile is handled (and the folder removed)
-    for (const [rel, bytes] of Object.entries(files)) {
+    // each file written as it is made (asynchronously, so a signal arriving meanwhile is handled and
+    // the folder removed), so the run never holds all its encoded outputs at once
+    const files = new Set<string>();
+    await produce(async (rel, bytes) => {
       mkdirSync(dirname(join(tmp, rel)), { recursive: true });
       await writeFile(join(tmp, rel), bytes);
-    }
+      files.add(rel);
+    });
     // tests of interrupted writes hold the run here, between writing and moving into place
     const pause = Number(process.env.TAPERLINE_TEST_WRITE_PAUSE_MS ?? 0);
     if (pause > 0) await new Promise((resolve) => setTimeout(resolve, pause));
     const previous = existsSync(join(out, MANIFEST)) ? readFileSync(join(out, MANIFEST), 'utf8').split('\n').filter(Boolean) : [];
-    for (const rel of Object.keys(files)) {
+    for (const rel of files) {
       mkdirSync(dirname(join(out, rel)), { recursive: true });
       renameSync(join(tmp, rel), join(out, rel));
     }
     for (const rel of previous) {
       // only plain relative names this tool wrote; never anything outside the folder
-      if (!(rel in files) && !rel.includes('..') && !rel.startsWith('/')) rmSync(join(out, rel), { force: true });
+      if (!files.has(rel) && !rel.includes('..') && !rel.startsWith('/')) rmSync(join(out, rel), { force: true });
     }
-    writeFileSync(join(out, MANIFEST), Object.keys(files).sort().join('\n') + '\n');
+    writeFileSync(join(out, MANIFEST), [...files].sort().join('\n') + '\n');
+    return files.size;
   } catch (err) {
     const code = (err as NodeJS.ErrnoException).code;
     if (code) throw new InputError(out, `cannot be written (${code}): choose another --out folder`);
@@ -341,7 +377,8 @@ function checkOutputFolder(out: string, inputs: (string | undefined)[]): void {
 }
 
 async function demo(flags: Map<string, string | true>, out: string): Promise<void> {
-  for (const k of flags.keys()) if (k !== 'out' && k !== 'size') throw new UsageError(`unknown option --${k} for demo`);
+  for (const k of flags.keys()) if (k !== 'out' && k !== 'size' && k !== 'grids') throw new UsageError(`unknown option --${k} for demo`);
+  const grids = gridList(flags, DERIVED.map((d) => d.name));
   const size = str(flags, 'size');
   let dims: [number, number] = [600, 400];
   if (size !== undefined) {
@@ -377,7 +414,7 @@ async function demo(flags: Map<string, string | true>, out: string): Promise<voi
     ['params', paramsPath],
   ]);
   process.stdout.write('Running on the invented demo scenario (Veyra margin, VM-3 Tessel licence: not real data).\n');
-  await synth(f, out);
+  await synth(f, out, 'synth', grids);
 }
 
 export async function main(argv: string[]): Promise<number> {

@@ -21,8 +21,17 @@ export function poolThreads(): number {
   return Math.max(1, Math.min(4, availableParallelism()));
 }
 
-/** Write every job; resolves to bytes keyed by the job's path (rejects with the first failure). */
-export async function writeGeoTiffs(geometry: GridGeometry, jobs: readonly GridJob[], threads = poolThreads()): Promise<Record<string, Uint8Array>> {
+/**
+ * Write every job, handing each file to `sink` as it is done (the CLI writes it to disk and lets the
+ * bytes go, so no more than `threads` encoded files are held at once); without a sink, resolves to
+ * the bytes keyed by the job's path. Rejects with the first failure.
+ */
+export async function writeGeoTiffs(
+  geometry: GridGeometry,
+  jobs: readonly GridJob[],
+  threads = poolThreads(),
+  sink?: (path: string, bytes: Uint8Array) => Promise<void>,
+): Promise<Record<string, Uint8Array>> {
   const out: Record<string, Uint8Array> = {};
   if (!jobs.length) return out;
   const workers = Array.from({ length: Math.min(threads, jobs.length) }, () => new Worker(new URL('./tiff-worker-entry.mjs', import.meta.url)));
@@ -39,7 +48,8 @@ export async function writeGeoTiffs(geometry: GridGeometry, jobs: readonly GridJ
           });
           w.removeAllListeners('error');
           if ('error' in reply) throw new Error(`writing ${path}: ${reply.error}`);
-          out[path] = reply.bytes;
+          if (sink) await sink(path, reply.bytes);
+          else out[path] = reply.bytes;
         }
       }),
     );

@@ -10,13 +10,14 @@
  *    residual depth anomaly instead: water-loaded depth minus the age–depth curve at the nearest
  *    isochron's age where isochrons are given, else at the oldest admissible age (the rift age).
  *    Where only the old end of the range is too old, it is capped at the rift age (counted).
- * Raw grids stay untouched (the interactive cache reuses them when only domain parameters change).
+ * Raw grids stay untouched (the interactive cache reuses them when only domain parameters change),
+ * unless `inPlace` (a one-shot batch run): then each is masked where it lies and no copy is made.
  */
 
 import { ageFromDepth, depthFromAge } from '../science/age-depth.js';
 import type { Params } from '../params.js';
 import { isContinentalDomain } from '../domains/classify.js';
-import type { Derived } from './derive.js';
+import { gridOf, type Derived } from './derive.js';
 import { DERIVED, type DerivedName } from './grids.js';
 
 export const UNBOUNDED_ZERO_CRUST = 1;
@@ -38,7 +39,8 @@ export interface AppliedCounts {
 }
 
 export interface Applied {
-  readonly grids: Record<DerivedName, Float32Array>;
+  /** The grids derive kept, masked (all of them unless the run kept only some). */
+  readonly grids: Partial<Record<DerivedName, Float32Array>>;
   readonly unboundedBeta: Uint8Array;
   readonly counts: AppliedCounts;
   readonly warnings: string[];
@@ -46,47 +48,54 @@ export interface Applied {
   readonly anomalyReference: string | null;
 }
 
-export function applyDomains(derived: Derived, domains: Uint8Array, p: Params, isochronAge: Float32Array | null): Applied {
+export function applyDomains(derived: Derived, domains: Uint8Array, p: Params, isochronAge: Float32Array | null, inPlace = false): Applied {
   const n = domains.length;
   const raw = derived.grids;
-  const grids = {} as Record<DerivedName, Float32Array>;
-  for (const d of DERIVED) {
-    const v = raw[d.name];
-    const out = new Float32Array(n);
-    if (d.applies === 'all') {
-      for (let k = 0; k < n; k++) out[k] = Number.isFinite(v[k]) ? v[k] : NaN;
-    } else if (d.applies === 'continental') {
-      for (let k = 0; k < n; k++) out[k] = isContinentalDomain(domains[k]) && Number.isFinite(v[k]) ? v[k] : NaN;
-    } else out.fill(NaN); // oceanic grids: filled below
-    grids[d.name] = out;
-  }
   const counts: AppliedCounts = { zeroCrust: 0, subsidenceBeyondInfinite: 0, ageOlderThanRift: 0, ageCappedAtRift: 0, noFiniteAge: 0, depthAnomaly: 0 };
+  // the unbounded-β mask first: masking in place replaces the ∞ it reads
   const unboundedBeta = new Uint8Array(n);
-  const bc = raw['beta-crust'];
-  const bs = raw['beta-subsidence'];
-  const ratio = grids['beta-ratio'];
+  const bc = gridOf(raw, 'beta-crust');
+  const bs = gridOf(raw, 'beta-subsidence');
   for (let k = 0; k < n; k++) {
     if (bc[k] === Infinity) {
       unboundedBeta[k] |= UNBOUNDED_ZERO_CRUST;
       counts.zeroCrust++;
-      ratio[k] = NaN; // β_sub / ∞ reads as 0, which it is not
     }
     if (bs[k] === Infinity && isContinentalDomain(domains[k])) {
       unboundedBeta[k] |= UNBOUNDED_SUBSIDENCE;
       counts.subsidenceBeyondInfinite++;
     }
   }
+  const Y = gridOf(raw, 'water-loaded-basement');
+  const aMinRaw = gridOf(raw, 'oceanic-age-min');
+  const aMaxRaw = gridOf(raw, 'oceanic-age-max');
+  const grids: Partial<Record<DerivedName, Float32Array>> = {};
+  for (const d of DERIVED) {
+    const v = raw[d.name];
+    if (!v) continue;
+    const out = inPlace ? v : new Float32Array(n);
+    if (d.applies === 'all') {
+      for (let k = 0; k < n; k++) out[k] = Number.isFinite(v[k]) ? v[k] : NaN;
+    } else if (d.applies === 'continental') {
+      for (let k = 0; k < n; k++) out[k] = isContinentalDomain(domains[k]) && Number.isFinite(v[k]) ? v[k] : NaN;
+    } else if (d.name === 'oceanic-depth-anomaly') out.fill(NaN); // filled below; the ages are written below for every cell
+    grids[d.name] = out;
+  }
+  const ratio = grids['beta-ratio'];
+  if (ratio) for (let k = 0; k < n; k++) if (unboundedBeta[k] & UNBOUNDED_ZERO_CRUST) ratio[k] = NaN; // β_sub / ∞ reads as 0, which it is not
 
   // Oceanic ages and depth anomalies.
-  const Y = raw['water-loaded-basement'];
-  const aMinRaw = raw['oceanic-age-min'];
-  const aMaxRaw = raw['oceanic-age-max'];
-  const aMin = grids['oceanic-age-min'];
-  const aMax = grids['oceanic-age-max'];
+  const aMin = gridOf(grids, 'oceanic-age-min');
+  const aMax = gridOf(grids, 'oceanic-age-max');
   const anomaly = grids['oceanic-depth-anomaly'];
   const limit = p.riftAge ?? Infinity;
   const curve = p.ageCurve;
+  // every cell written (read raw first: in place, aMin/aMax are the raw grids)
   for (let k = 0; k < n; k++) {
+    const lo = aMinRaw[k];
+    let hi = aMaxRaw[k];
+    aMin[k] = NaN;
+    aMax[k] = NaN;
     if (domains[k] !== 5 || Y[k] !== Y[k]) continue;
     const a = ageFromDepth(Y[k], curve);
     if (a > limit || a === Infinity) {
@@ -96,13 +105,12 @@ export function applyDomains(derived: Derived, domains: Uint8Array, p: Params, i
       if (p.riftAge !== null) counts.ageOlderThanRift++;
       else counts.noFiniteAge++;
       if (ref === ref) {
-        anomaly[k] = Y[k] - depthFromAge(ref, curve);
+        if (anomaly) anomaly[k] = Y[k] - depthFromAge(ref, curve);
         counts.depthAnomaly++;
       }
       continue;
     }
-    aMin[k] = aMinRaw[k];
-    let hi = aMaxRaw[k];
+    aMin[k] = lo;
     if (hi > limit) {
       hi = limit;
       counts.ageCappedAtRift++;

@@ -36,8 +36,16 @@ export interface DeriveFlags {
   noSubsidence: number;
 }
 
-export interface Derived {
-  readonly grids: Record<DerivedName, Float32Array>;
+/**
+ * Grids the pipeline itself reads after derive (thickness for the domains and lines, sediment for the
+ * data mask, water-loaded depth for the oceanward fit and the ages, both β for the unbounded mask,
+ * the age range for the oceanic lines): always kept, whatever the caller asked for.
+ */
+export const NEEDED: ReadonlySet<DerivedName> = new Set<DerivedName>(['crustal-thickness', 'sediment-thickness', 'water-loaded-basement', 'beta-crust', 'beta-subsidence', 'oceanic-age-min', 'oceanic-age-max']);
+
+export interface Derived<G = Partial<Record<DerivedName, Float32Array>>> {
+  /** Every derived grid, or (when derive was given `keep`) only those kept and NEEDED. */
+  readonly grids: G;
   readonly flags: DeriveFlags;
   readonly warnings: string[];
   /** A data-based suggestion for tc0 (m): shown to the user, never applied. NaN if none. */
@@ -62,12 +70,32 @@ export function mckenzieOf(p: Params): McKenzieParams {
   };
 }
 
-export function derive(input: DeriveInput, p: Params): Derived {
+/** A derived grid the run must have (NEEDED ones always are): throws if a lean run dropped it. */
+export function gridOf(grids: Partial<Record<DerivedName, Float32Array>>, name: DerivedName): Float32Array {
+  const v = grids[name];
+  if (!v) throw new Error(`derived grid ${name} was not kept in this run`);
+  return v;
+}
+
+/**
+ * `keep`: the grids to keep (default: all). The others are still computed cell by cell (one loop
+ * for all) but into one shared scratch grid, and left out of the result, so a
+ * batch run that writes only some grids holds only those (plus NEEDED) in memory.
+ */
+export function derive(input: DeriveInput, p: Params): Derived<Record<DerivedName, Float32Array>>;
+export function derive(input: DeriveInput, p: Params, keep: ReadonlySet<DerivedName> | undefined): Derived;
+export function derive(input: DeriveInput, p: Params, keep?: ReadonlySet<DerivedName>): Derived {
   const n = input.basement.length;
   if (input.moho.length !== n || (input.seabed && input.seabed.length !== n)) {
     throw new Error('derive: seabed, basement and Moho must share one analysis grid');
   }
-  const grids = Object.fromEntries(DERIVED.map((d) => [d.name, new Float32Array(n)])) as Record<DerivedName, Float32Array>;
+  let scratch: Float32Array | null = null;
+  const all = Object.fromEntries(
+    DERIVED.map((d) => [d.name, !keep || keep.has(d.name) || NEEDED.has(d.name) ? new Float32Array(n) : (scratch ??= new Float32Array(n))]),
+  ) as Record<DerivedName, Float32Array>;
+  const grids: Partial<Record<DerivedName, Float32Array>> = {};
+  for (const d of DERIVED) if (all[d.name] !== scratch) grids[d.name] = all[d.name];
+  const outputs = DERIVED.map((d) => all[d.name]);
   const flags: DeriveFlags = {
     noData: 0, mohoAboveBasement: 0, zeroCrust: 0, mohoNotImaged: 0, basementAboveSeabed: 0, basementAtSeabed: 0,
     land: 0, betaBelowOne: 0, noSubsidence: 0,
@@ -88,7 +116,7 @@ export function derive(input: DeriveInput, p: Params): Derived {
   if (!haveAge) warnings.push('time since rifting not given: predicted depth, subsidence residual and β from subsidence are not computed');
   if (!input.seabed) warnings.push('no seabed grid: water depth, sediment, unloading, subsidence and age grids are not computed');
 
-  const g = grids;
+  const g = all;
   const seabed = input.seabed;
   const basement = input.basement;
   const moho = input.moho;
@@ -139,7 +167,7 @@ export function derive(input: DeriveInput, p: Params): Derived {
     }
     if (b !== b || (seabed && sb !== sb)) flags.noData++;
     if (!ok) {
-      for (let q = 0; q < DERIVED.length; q++) g[DERIVED[q].name][k] = NaN;
+      for (let q = 0; q < outputs.length; q++) outputs[q][k] = NaN;
       continue;
     }
     if (m === m) {

@@ -3,7 +3,7 @@
  * as bytes keyed by relative path. Shells write them (CLI) or offer them for download (app).
  */
 
-import { APPLIES_TEXT, DERIVED } from '../derive/grids.js';
+import { APPLIES_TEXT, DERIVED, type DerivedName } from '../derive/grids.js';
 import { DOMAIN_STYLES } from '../domains/styles.js';
 import { DOMAIN_NAMES, FLAG_ATYPICAL_OCEANIC, FLAG_BLOCK, FLAG_ENCLOSED_THIN, FLAG_FORCED, FLAG_UNRESOLVED } from '../domains/classify.js';
 import { WGS84 } from '../crs/registry.js';
@@ -18,6 +18,8 @@ export interface RunInfo {
   /** ISO time of the run, from the shell (the core reads no clock). */
   readonly time: string;
   readonly tool: 'cli' | 'app';
+  /** The derived grids asked for (the CLI's --grids); absent: every one. */
+  readonly grids?: readonly DerivedName[];
 }
 
 const enc = new TextEncoder();
@@ -39,15 +41,17 @@ export interface GridJob {
 
 /**
  * The GeoTIFFs of a run as jobs (so a shell can write them on several threads: the CLI does) and
- * their small side files (.aux.xml category names).
+ * their small side files (.aux.xml category names). Only the derived grids the run asked for
+ * (run.grids), never an empty one; domains and the unbounded-β mask always.
  */
 export function gridJobs(r: PipelineResult, run?: RunInfo): { jobs: GridJob[]; side: Record<string, Uint8Array> } {
   const jobs: GridJob[] = [];
+  const only = run?.grids ? new Set(run.grids) : null;
   // provenance in every GeoTIFF: program, version and time (the parameters are in summary.json)
   const prov = run ? { software: `taperline ${run.version}`, dateTime: tiffTime(run.time) } : {};
   const empty = new Set(emptyGrids(r).map((e) => e.name));
   for (const g of DERIVED) {
-    if (empty.has(g.name)) continue;
+    if (empty.has(g.name) || !r.grids[g.name] || (only && !only.has(g.name))) continue;
     jobs.push({
       path: `grids/${g.name}.tif`,
       values: exportValues(r, g.name),
@@ -96,6 +100,7 @@ export function emptyGrids(r: PipelineResult): { name: string; reason: string }[
   const out: { name: string; reason: string }[] = [];
   for (const g of DERIVED) {
     const v = r.grids[g.name];
+    if (!v) continue; // not kept in this run (listed as not requested)
     let any = false;
     for (let k = 0; k < v.length; k++) if (v[k] === v[k]) { any = true; break; }
     if (any) continue;
@@ -202,6 +207,7 @@ export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCol
     lines_interrupted_by_unresolved_transition: r.boundaries.interruptions.filter((q) => q.cause === 'unresolved').map((q) => ({ kind: q.kind, ...lonLat(r, q.x, q.y) })),
     grid_rules: Object.fromEntries(DERIVED.map((d) => [d.name, APPLIES_TEXT[d.applies]])),
     grids_not_written: emptyGrids(r),
+    grids_not_requested: run.grids ? DERIVED.filter((d) => !run.grids!.includes(d.name)).map((d) => d.name) : [],
     depth_anomaly_reference: r.applied.anomalyReference,
     flagged_cells: snakeKeys({ ...r.derived.flags, ...r.applied.counts, ...classFlagCounts(r.classified.flags) }),
     domain_cells: r.classified.counts,

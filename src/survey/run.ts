@@ -1,5 +1,6 @@
 /** Survey planning on a pipeline result: proposals, per-line figures from sections, programme totals. */
 
+import { gridOf } from '../derive/derive.js';
 import { extentOf } from '../grid/geometry.js';
 import type { Ring } from '../boundaries/planar.js';
 import type { PipelineResult } from '../pipeline.js';
@@ -21,7 +22,7 @@ export function sectionGrids(r: PipelineResult): SectionGrids {
     seabed: r.analysis.seabed,
     basement: r.analysis.basement,
     moho: r.analysis.moho,
-    thickness: r.derived.grids['crustal-thickness'],
+    thickness: gridOf(r.derived.grids, 'crustal-thickness'),
     domains: r.classified.domains,
   };
 }

@@ -119,9 +119,9 @@ describe('interpretation on a synthetic margin: Moho gaps, thin first oceanic cr
   });
 
   it('ages only over oceanic crust and never older than the rift; deeper cells carry a depth anomaly instead', () => {
-    const aMin = r.grids['oceanic-age-min'];
-    const aMax = r.grids['oceanic-age-max'];
-    const anomaly = r.grids['oceanic-depth-anomaly'];
+    const aMin = r.grids['oceanic-age-min']!;
+    const aMax = r.grids['oceanic-age-max']!;
+    const anomaly = r.grids['oceanic-depth-anomaly']!;
     let aged = 0;
     let anomalies = 0;
     for (let k = 0; k < aMin.length; k++) {
@@ -148,14 +148,14 @@ describe('interpretation on a synthetic margin: Moho gaps, thin first oceanic cr
 
   it('McKenzie, Airy and β grids are no data outside the continental domains', () => {
     for (const d of DERIVED.filter((q) => q.applies === 'continental')) {
-      const v = r.grids[d.name];
+      const v = r.grids[d.name]!;
       let outside = 0;
       for (let k = 0; k < v.length; k++) if ((r.classified.domains[k] < 1 || r.classified.domains[k] > 3) && v[k] === v[k]) outside++;
       expect(outside, d.name).toBe(0);
     }
     // and they exist over continental crust
-    expect(r.grids['beta-crust'].some((v) => v === v)).toBe(true);
-    expect(r.grids['subsidence-residual'].some((v) => v === v)).toBe(true);
+    expect(r.grids['beta-crust']!.some((v) => v === v)).toBe(true);
+    expect(r.grids['subsidence-residual']!.some((v) => v === v)).toBe(true);
   });
 
   it('no grid and no GeoJSON property holds ±∞: every output read back', async () => {

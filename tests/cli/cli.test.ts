@@ -5,6 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoFiles } from '../../fixtures/demo-files.js';
+import { DEMO_PARAMS } from '../../fixtures/demo-margin.js';
 import { PARAM_SPECS } from '../../src/params.js';
 import { taperline } from '../helpers/cli.js';
 
@@ -152,6 +153,42 @@ describe('nothing overwritten, nothing stale', () => {
     expect(r.status).toBe(2);
     expect(r.stderr.trim().split('\n')).toHaveLength(1);
     expect(r.stderr).toMatch(/\/proc\/taperline-out: cannot be written \(E[A-Z]+\)/);
+  });
+});
+
+describe('which grids synth writes (--grids)', () => {
+  it('by default every grid but the six opt-in ones, each byte-equal to the same grid of --grids all; unknown names refused', () => {
+    writeFileSync(f('demo-params.json'), JSON.stringify(DEMO_PARAMS)); // a rift age: every grid has values
+    const lean = synth(['--seabed', f('seabed.tif'), '--params', f('demo-params.json')], f('lean'));
+    const all = synth(['--seabed', f('seabed.tif'), '--params', f('demo-params.json'), '--grids', 'all'], f('all'));
+    expect(lean.status).toBe(0);
+    expect(all.status).toBe(0);
+    const tifs = (out: string) => readdirSync(join(out, 'grids')).filter((q) => q.endsWith('.tif')).sort();
+    const optIn = ['airy-thickness', 'beta-ratio', 'gamma', 'predicted-water-loaded', 'sediment-thickness', 'water-depth'];
+    expect(tifs(f('all')).filter((q) => !tifs(f('lean')).includes(q))).toEqual(optIn.map((q) => `${q}.tif`));
+    const summary = JSON.parse(readFileSync(join(f('lean'), 'summary.json'), 'utf8'));
+    expect([...summary.grids_not_requested].sort()).toEqual(optIn);
+    // the lean run masks its grids in place rather than copying them: same samples, same files
+    // (the TIFF DateTime tag differs between runs: compare the samples after the header)
+    for (const t of tifs(f('lean'))) {
+      const a = readFileSync(join(f('lean'), 'grids', t));
+      const b = readFileSync(join(f('all'), 'grids', t));
+      expect(a.length, t).toBe(b.length);
+      let diff = 0;
+      for (let k = 0; k < a.length; k++) if (a[k] !== b[k]) diff++;
+      expect(diff, t).toBeLessThanOrEqual(19); // "YYYY:MM:DD HH:MM:SS" at most
+    }
+    // the vector outputs do not depend on which grids are written
+    for (const v of ['boundaries.geojson', 'domains.geojson']) {
+      const strip = (t: string) => t.replace(/"time": "[^"]*"/g, '');
+      expect(strip(readFileSync(join(f('lean'), v), 'utf8')), v).toBe(strip(readFileSync(join(f('all'), v), 'utf8')));
+    }
+    const some = synth(['--grids', 'crustal-thickness,gamma'], f('some'));
+    expect(some.status).toBe(0);
+    expect(tifs(f('some'))).toEqual(['crustal-thickness.tif', 'domains.tif', 'gamma.tif', 'unbounded-beta.tif']);
+    const bad = synth(['--grids', 'default,thickness'], f('bad'));
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toMatch(/--grids: unknown grid "thickness"/);
   });
 });
 
