@@ -6,12 +6,12 @@
 import { crsFromEpsg, WGS84 } from './crs/registry.js';
 import { transformer } from './crs/transform.js';
 import { densify } from './crs/densify.js';
-import { cellAreas, rasterizeRings } from './grid/cell-area.js';
+import { cellAreaRows, rasterizeRings, type CellAreaRows } from './grid/cell-area.js';
 import { extentOf, sameGeometry, xToCol, yToRow, type GridGeometry } from './grid/geometry.js';
 import type { Grid } from './grid/grid.js';
 import { resample, sampleBilinear } from './grid/resample.js';
 import { derive, gridOf, type Derived } from './derive/derive.js';
-import { classify, FORCE_CONTINENTAL, FORCE_OCEANIC, FORCE_TRANSITION, isContinentalDomain, type Classified } from './domains/classify.js';
+import { classify, FORCE_CONTINENTAL, FORCE_OCEANIC, FORCE_TRANSITION, type Classified } from './domains/classify.js';
 import { applyDomains, type Applied } from './derive/applicability.js';
 import { nearestIsochronAge } from './derive/isochron-age.js';
 import type { DerivedName } from './derive/grids.js';
@@ -76,7 +76,7 @@ const LINE_ONLY: readonly (keyof Params)[] = [
 
 export interface PipelineCache {
   projected?: { source: Float32Array; geometry: GridGeometry; values: Float32Array };
-  areas?: { geometry: GridGeometry; values: Float64Array };
+  areas?: CellAreaRows;
   entry: { basement: Float32Array; moho: GridInput; seabed: GridInput | null; key: string; derived: Derived; mohoA: Float32Array; seabedA: Float32Array | null; warnings: string[] } | null;
 }
 
@@ -278,11 +278,18 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   const sed = gridOf(derived.grids, 'sediment-thickness');
   // a cell has data when its basement does and, with a seabed grid, its seabed and sediment do (no pick error)
   for (let k = 0; k < n; k++) valid[k] = b[k] === b[k] && (!seabed || sed[k] === sed[k]) ? 1 : 0;
-  // geodesic cell areas depend on the geometry only: reuse them between interactive runs
-  const areasPerCell = options.cache?.areas && sameGeometry(options.cache.areas.geometry, geometry) ? options.cache.areas.values : cellAreas(geometry);
-  if (options.cache) options.cache.areas = { geometry, values: areasPerCell };
+  // a keepGrids run lets go of the sediment grid here unless asked for (only the mask above reads it)
+  if (options.keepGrids && !options.keepGrids.has('sediment-thickness')) delete derived.grids['sediment-thickness'];
+  // geodesic cell areas depend on the geometry only: reuse them between interactive runs; summed
+  // row by row (never a grid of them)
+  const areaRows = options.cache?.areas && sameGeometry(options.cache.areas.geometry, geometry) ? options.cache.areas : cellAreaRows(geometry);
+  if (options.cache) options.cache.areas = areaRows;
+  const rowAreas = new Float64Array(geometry.nx);
   let meanCell = 0;
-  for (let k = 0; k < n; k++) meanCell += areasPerCell[k];
+  for (let j = 0; j < geometry.ny; j++) {
+    areaRows.row(j, rowAreas);
+    for (let i = 0; i < geometry.nx; i++) meanCell += rowAreas[i];
+  }
   meanCell /= n;
   const classifyAt = (taperLevel: Float32Array | number, oceanLevel: Float32Array | number) =>
     classify({
@@ -317,11 +324,16 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   const tally = (mask: Uint8Array | null): DomainArea[] => {
     const cells = new Float64Array(7);
     const m2 = new Float64Array(7);
-    for (let k = 0; k < n; k++) {
-      if (mask && !mask[k]) continue;
-      const d = classified.domains[k];
-      cells[d]++;
-      m2[d] += areasPerCell[k];
+    const nx = geometry.nx;
+    for (let j = 0; j < geometry.ny; j++) {
+      areaRows.row(j, rowAreas);
+      for (let i = 0; i < nx; i++) {
+        const k = j * nx + i;
+        if (mask && !mask[k]) continue;
+        const d = classified.domains[k];
+        cells[d]++;
+        m2[d] += rowAreas[i];
+      }
     }
     return [0, 1, 2, 3, 4, 5, 6].map((code) => ({ code, cells: cells[code], km2: m2[code] / 1e6 }));
   };
@@ -359,8 +371,8 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     const proxyDomains = hasLimitPicks ? (calTaper || calOcean ? classifyAt(params.taperThreshold, params.oceanicThreshold).domains : classified.domains) : null;
     const proxy = proxyDomains
       ? {
-          taper: traceSideLine(geometry, tc, (k) => isContinentalDomain(proxyDomains[k]), params.taperThreshold),
-          oceanic: traceSideLine(geometry, tc, (k) => proxyDomains[k] === 5, params.oceanicThreshold),
+          taper: traceSideLine(geometry, tc, proxyDomains, 'continental', params.taperThreshold),
+          oceanic: traceSideLine(geometry, tc, proxyDomains, 'oceanic', params.oceanicThreshold),
         }
       : { taper: [], oceanic: [] };
     const grid = { geometry, values: tc };

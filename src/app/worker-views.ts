@@ -7,7 +7,7 @@
 import { WGS84 } from '../crs/registry.js';
 import { transformer } from '../crs/transform.js';
 import { boundariesGeoJson, domainsGeoJson } from '../export/geojson.js';
-import { exportValues, summary as runSummary } from '../export/outputs.js';
+import { exportValues, lineFigures, linesPlacedBy } from '../export/outputs.js';
 import { splitLine, toLonLat } from '../export/rfc7946.js';
 import { surveyCsv, surveyGeoJson } from '../export/survey.js';
 import type { VectorSet } from '../io/geojson-read.js';
@@ -57,7 +57,9 @@ export function displayGeoJson(set: VectorSet): unknown {
 
 export function runDisplay(r: PipelineResult, outlines: boolean, millis: () => number): DisplayResult {
   const regional = boundariesGeoJson(r, 'regional');
-  const s = runSummary(r, { version: '', time: '', tool: 'app' }, r.boundaries.inLicence ? undefined : regional) as Record<string, unknown>;
+  // lengths and the COT area as the summary gives them (inside the licence when there is one); the
+  // rest of the summary (exact licence clipping of every domain) waits for an export
+  const figures = lineFigures(r.boundaries.inLicence ? boundariesGeoJson(r) : regional);
   const gridsOut: Record<string, Float32Array> = {};
   // shown as exported: each grid masked to the domains where its model applies
   for (const name of Object.keys(r.grids)) gridsOut[name] = exportValues(r, name).slice();
@@ -72,14 +74,14 @@ export function runDisplay(r: PipelineResult, outlines: boolean, millis: () => n
       areas: r.areas.total,
       areasInLicence: r.areas.inLicence,
       licenceName: r.licenceName,
-      lengths: s.boundary_lengths_km as Record<string, number>,
-      cotAreaKm2: s.cot_zone_area_km2 as number,
+      lengths: figures.lengths,
+      cotAreaKm2: Math.round(figures.cot * 1000) / 1000,
       warnings: r.warnings,
       missing: r.boundaries.missing,
       oceanwardAzimuth: r.oceanward.azimuth,
       suggestedTc0: Number.isFinite(r.derived.suggestedTc0) ? r.derived.suggestedTc0 : null,
       calibrated: { taper: r.calibration.taper?.points.length ?? 0, ocean: r.calibration.ocean?.points.length ?? 0, onlap: r.boundaries.onlap.points.length },
-      placedBy: s.lines_placed_by as Record<string, string>,
+      placedBy: linesPlacedBy(r),
       suspectPicks: r.pickChecks.filter((c) => c.suspect && !c.excluded).length,
       farFromControlKm: r.params.farFromControl / 1000,
     },

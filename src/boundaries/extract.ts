@@ -17,7 +17,7 @@ import { lineCount, lineRange, ringArea, traceLevel, type Lines } from '../conto
 import { DOMAIN_MOHO_GAP, FLAG_UNRESOLVED, isContinentalDomain } from '../domains/classify.js';
 import type { Oceanward } from '../domains/direction.js';
 import type { Params } from '../params.js';
-import { sideField } from './fields.js';
+import { sideField, sideOf } from './fields.js';
 import { offsetAt, onlapLines, onlapOffset, strikeOf, type OnlapPoint } from './onlap.js';
 import { simplifyShared } from './simplify.js';
 import { clipLineToPolygon, clipPolygons, distanceToControl, insideRings, signedArea, type Ring } from './planar.js';
@@ -101,12 +101,15 @@ const MAX_PIECE = 10_000;
 /** Metres: "far from either side" in the COT field, beyond any thickness difference. */
 const FAR = 1e7;
 
-/** Cells that are, or have an 8-neighbour that is, in the set. */
-function dilate(inside: (k: number) => boolean, nx: number, ny: number): Uint8Array {
+const CONTINENTAL_SIDE = sideOf(isContinentalDomain);
+const OCEANIC_SIDE = sideOf((c) => c === 5);
+
+/** Cells that are, or have an 8-neighbour that is, on the side (domain codes, see sideOf). */
+function dilate(domains: Uint8Array, side: Uint8Array, nx: number, ny: number): Uint8Array {
   const out = new Uint8Array(nx * ny);
   for (let j = 0; j < ny; j++) {
     for (let i = 0; i < nx; i++) {
-      if (!inside(j * nx + i)) continue;
+      if (!side[domains[j * nx + i]]) continue;
       for (let b = Math.max(0, j - 1); b <= Math.min(ny - 1, j + 1); b++) for (let a = Math.max(0, i - 1); a <= Math.min(nx - 1, i + 1); a++) out[b * nx + a] = 1;
     }
   }
@@ -121,24 +124,25 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   const p = inp.params;
   const dom = inp.domains;
   const tc = inp.thickness;
-  const continental = (k: number) => isContinentalDomain(dom[k]);
-  const oceanic = (k: number) => dom[k] === 5;
 
   // 1. Side fields and their lines. Where thickness cannot resolve the transition the taper and
   // oceanic limits are not drawn (NaN: lines stop there, as at a Moho gap).
   const flags = inp.flags;
   const tcLimits = flags ? tc.map((v, k) => (flags[k] & FLAG_UNRESOLVED ? NaN : v)) : tc;
-  const gTaper = sideField(tcLimits, continental, inp.taperLevel, true);
-  const gOcean = sideField(tcLimits, oceanic, inp.oceanLevel, true);
-  const gNeck = sideField(tc, continental, p.neckingFraction * p.tc0, false);
-  const gCoupling = sideField(tc, continental, p.couplingThickness, false);
   const toMap = (l: Lines): Ring[] => linesToMap(g, l);
   const grid = (v: Float32Array) => ({ values: v, nx, ny });
+  // one field at a time where it can be: necking and coupling share a buffer (traced, then reused
+  // for the COT field); the taper and oceanic fields are kept for the COT field
+  const spare = new Float32Array(nx * ny);
+  const necking = toMap(traceLevel(grid(sideField(tc, dom, CONTINENTAL_SIDE, p.neckingFraction * p.tc0, false, spare)), 0));
+  const coupling = toMap(traceLevel(grid(sideField(tc, dom, CONTINENTAL_SIDE, p.couplingThickness, false, spare)), 0));
+  const gTaper = sideField(tcLimits, dom, CONTINENTAL_SIDE, inp.taperLevel, true);
+  const gOcean = sideField(tcLimits, dom, OCEANIC_SIDE, inp.oceanLevel, true);
   const lines: Record<'taper' | 'oceanic' | 'necking' | 'coupling', Ring[]> = {
     taper: toMap(traceLevel(grid(gTaper), 0)),
     oceanic: toMap(traceLevel(grid(gOcean), 0)),
-    necking: toMap(traceLevel(grid(gNeck), 0)),
-    coupling: toMap(traceLevel(grid(gCoupling), 0)),
+    necking,
+    coupling,
   };
 
   // COT zone: between the taper limit and the oceanic limit, {G_taper < 0 and G_ocean < 0}, traced
@@ -146,9 +150,9 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   // O likewise for oceanic cells. Each border edge then interpolates exactly the values its line
   // does, so ring and line share vertices bit for bit even where the two thresholds differ (a
   // transition cell thicker than the taper threshold would otherwise read as "just inside").
-  const nearC = dilate(continental, nx, ny);
-  const nearO = dilate(oceanic, nx, ny);
-  const cotField = new Float32Array(nx * ny);
+  const nearC = dilate(dom, CONTINENTAL_SIDE, nx, ny);
+  const nearO = dilate(dom, OCEANIC_SIDE, nx, ny);
+  const cotField = spare;
   for (let k = 0; k < cotField.length; k++) {
     const t = nearC[k] ? -gTaper[k] : FAR;
     const o = nearO[k] ? -gOcean[k] : FAR;
@@ -336,8 +340,9 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
 const km = (m: number) => (m / 1000).toFixed(1);
 
 /** The zero line of a side field (fields.ts) in map coordinates: one boundary line alone. */
-export function traceSideLine(g: GridGeometry, tc: Float32Array, inside: (k: number) => boolean, level: Float32Array | number): Ring[] {
-  return linesToMap(g, traceLevel({ values: sideField(tc, inside, level, true), nx: g.nx, ny: g.ny }, 0));
+export function traceSideLine(g: GridGeometry, tc: Float32Array, domains: Uint8Array, side: 'continental' | 'oceanic', level: Float32Array | number): Ring[] {
+  const table = side === 'continental' ? CONTINENTAL_SIDE : OCEANIC_SIDE;
+  return linesToMap(g, traceLevel({ values: sideField(tc, domains, table, level, true), nx: g.nx, ny: g.ny }, 0));
 }
 
 /** Traced lines (index space) → rings in map coordinates. */

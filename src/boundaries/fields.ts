@@ -8,22 +8,36 @@
 
 const EPS = 1e-3; // metres: keeps outside cells strictly below the level
 
+/** A side as a lookup by domain code (1: the code belongs to the side), for `sideField`. */
+export function sideOf(member: (code: number) => boolean): Uint8Array {
+  const t = new Uint8Array(256);
+  for (let c = 0; c < 256; c++) t[c] = member(c) ? 1 : 0;
+  return t;
+}
+
+/**
+ * G for the side of cells whose domain code is in `side` (see sideOf), written into `out` when given
+ * (a buffer reused between fields) else a new grid.
+ */
 export function sideField(
   tc: Float32Array,
-  inside: (k: number) => boolean,
+  domains: Uint8Array,
+  side: Uint8Array,
   threshold: Float32Array | number,
   clampInside: boolean,
+  out: Float32Array = new Float32Array(tc.length),
 ): Float32Array {
   const n = tc.length;
-  const out = new Float32Array(n);
+  const level = typeof threshold === 'number' ? null : threshold;
+  const fixed = typeof threshold === 'number' ? threshold : 0;
   for (let k = 0; k < n; k++) {
     const t = tc[k];
     if (t !== t) {
       out[k] = NaN;
       continue;
     }
-    const g = t - (typeof threshold === 'number' ? threshold : threshold[k]);
-    out[k] = inside(k) ? (clampInside && g < 0 ? 0 : g) : Math.min(g, -EPS);
+    const g = t - (level ? level[k] : fixed);
+    out[k] = side[domains[k]] ? (clampInside && g < 0 ? 0 : g) : Math.min(g, -EPS);
   }
   return out;
 }

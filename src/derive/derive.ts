@@ -39,7 +39,8 @@ export interface DeriveFlags {
 /**
  * Grids the pipeline itself reads after derive (thickness for the domains and lines, sediment for the
  * data mask, water-loaded depth for the oceanward fit and the ages, both β for the unbounded mask,
- * the age range for the oceanic lines): always kept, whatever the caller asked for.
+ * the age range for the oceanic lines): always computed, whatever the caller asked for (a lean
+ * pipeline run drops the sediment grid once its data mask is made, unless asked for).
  */
 export const NEEDED: ReadonlySet<DerivedName> = new Set<DerivedName>(['crustal-thickness', 'sediment-thickness', 'water-loaded-basement', 'beta-crust', 'beta-subsidence', 'oceanic-age-min', 'oceanic-age-max']);
 

@@ -1,6 +1,8 @@
 /**
- * Connected components (4-connectivity) of a mask, by an iterative flood fill with an explicit
- * Int32Array stack: labels 1..n, 0 = not in the mask. No recursion, no per-cell objects.
+ * Connected components (4-connectivity) of a mask: labels 1..n in the raster order of each
+ * component's first cell, 0 = not in the mask. Two raster passes with union–find (provisional labels
+ * from the left and upper neighbours, merged; then final labels): sequential memory access, one
+ * label grid, no stack.
  */
 export interface Components {
   readonly labels: Int32Array;
@@ -12,26 +14,58 @@ export interface Components {
 export function components(mask: Uint8Array, nx: number, ny: number): Components {
   const n = nx * ny;
   const labels = new Int32Array(n);
-  const stack = new Int32Array(n);
+  let parent = new Int32Array(1024);
+  let next = 1;
+  const find = (a: number): number => {
+    let r = a;
+    while (parent[r] !== r) r = parent[r];
+    while (parent[a] !== r) {
+      const up = parent[a];
+      parent[a] = r;
+      a = up;
+    }
+    return r;
+  };
+  // 1. provisional labels; the smaller root wins a merge (so each root is its set's first label)
+  for (let j = 0; j < ny; j++) {
+    const row = j * nx;
+    for (let i = 0; i < nx; i++) {
+      const k = row + i;
+      if (!mask[k]) continue;
+      const left = i > 0 ? labels[k - 1] : 0;
+      const up = j > 0 ? labels[k - nx] : 0;
+      if (!left && !up) {
+        if (next === parent.length) {
+          const grown = new Int32Array(parent.length * 2);
+          grown.set(parent);
+          parent = grown;
+        }
+        parent[next] = next;
+        labels[k] = next++;
+      } else if (left && up && left !== up) {
+        const a = find(left);
+        const b = find(up);
+        if (a < b) parent[b] = a;
+        else if (b < a) parent[a] = b;
+        labels[k] = a < b ? a : b;
+      } else labels[k] = left || up;
+    }
+  }
+  // 2. final labels in raster order of first cells, and sizes
+  const final = new Int32Array(next);
   const sizes: number[] = [0];
   let count = 0;
-  for (let start = 0; start < n; start++) {
-    if (!mask[start] || labels[start]) continue;
-    count++;
-    let size = 0;
-    let top = 0;
-    stack[top++] = start;
-    labels[start] = count;
-    while (top > 0) {
-      const k = stack[--top];
-      size++;
-      const i = k % nx;
-      if (i > 0 && mask[k - 1] && !labels[k - 1]) (labels[k - 1] = count), (stack[top++] = k - 1);
-      if (i < nx - 1 && mask[k + 1] && !labels[k + 1]) (labels[k + 1] = count), (stack[top++] = k + 1);
-      if (k >= nx && mask[k - nx] && !labels[k - nx]) (labels[k - nx] = count), (stack[top++] = k - nx);
-      if (k < n - nx && mask[k + nx] && !labels[k + nx]) (labels[k + nx] = count), (stack[top++] = k + nx);
+  for (let k = 0; k < n; k++) {
+    const p = labels[k];
+    if (!p) continue;
+    const r = find(p);
+    let f = final[r];
+    if (!f) {
+      f = final[r] = ++count;
+      sizes.push(0);
     }
-    sizes.push(size);
+    labels[k] = f;
+    sizes[f]++;
   }
   return { labels, count, sizes: Int32Array.from(sizes) };
 }

@@ -138,6 +138,28 @@ export function provenance(r: PipelineResult, run: RunInfo): Record<string, unkn
   };
 }
 
+/** Length of each kind of line (km, geodesic, summed over its pieces) and the COT zone's area (km²). */
+export function lineFigures(bfc: FeatureCollection): { lengths: Record<string, number>; cot: number } {
+  const lengths: Record<string, number> = {};
+  for (const f of bfc.features) {
+    const k = String(f.properties.kind);
+    if (typeof f.properties.length_km === 'number') lengths[k] = Math.round(((lengths[k] ?? 0) + f.properties.length_km) * 1000) / 1000;
+  }
+  const cot = bfc.features.filter((f) => f.properties.kind === 'cot-zone').reduce((s, f) => s + Number(f.properties.area_km2), 0);
+  return { lengths, cot };
+}
+
+/** Which parameter or which picks placed each named line, in words. */
+export function linesPlacedBy(r: PipelineResult): Record<string, string> {
+  return {
+    'crustal-taper-limit': r.placedBy.taper,
+    'oceanic-limit': r.placedBy.oceanic,
+    'oldest-onlapped-crust': String(r.boundaries.pieces.find((q) => q.kind === 'oldest-onlapped-crust')?.properties.placed_by ?? 'not drawn'),
+    'necking-line': `parameters neckingFraction × tc0 = ${r.params.neckingFraction * r.params.tc0} m`,
+    'coupling-line': `parameter couplingThickness = ${r.params.couplingThickness} m`,
+  };
+}
+
 export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCollection, domainsInLicence?: FeatureCollection): Record<string, unknown> {
   const inputs = Object.entries(r.inputs)
     .filter(([, v]) => v)
@@ -145,13 +167,7 @@ export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCol
       const meta = v as { name: string; bytes?: number; sha256?: string; report?: unknown };
       return { role, name: meta.name, bytes: meta.bytes ?? null, sha256: meta.sha256 ?? null, detected: meta.report ?? null };
     });
-  const lengths: Record<string, number> = {};
-  const bfc = boundaries ?? boundariesGeoJson(r);
-  for (const f of bfc.features) {
-    const k = String(f.properties.kind);
-    if (typeof f.properties.length_km === 'number') lengths[k] = Math.round(((lengths[k] ?? 0) + f.properties.length_km) * 1000) / 1000;
-  }
-  const cot = bfc.features.filter((f) => f.properties.kind === 'cot-zone').reduce((s, f) => s + Number(f.properties.area_km2), 0);
+  const { lengths, cot } = lineFigures(boundaries ?? boundariesGeoJson(r));
   const area = (list: { code: number; cells: number; km2: number }[] | null, exact?: Map<number, number>) =>
     list ? Object.fromEntries(list.map((a) => [DOMAIN_NAMES[a.code], { code: a.code, cells: a.cells, km2: Math.round((exact && a.code > 0 ? exact.get(a.code) ?? 0 : a.km2) * 1000) / 1000 }])) : null;
   // inside the licence: the geodesic areas of the domain polygons clipped exactly to it (cells: by centre)
@@ -196,13 +212,7 @@ export function summary(r: PipelineResult, run: RunInfo, boundaries?: FeatureCol
       excluded_picks: r.evidence.picks.filter((q) => q.excluded).map((q) => q.id),
       suspect_picks: r.pickChecks.filter((c) => c.suspect).map((c) => ({ ...c, ...lonLat(r, c.x, c.y) })),
     },
-    lines_placed_by: {
-      'crustal-taper-limit': r.placedBy.taper,
-      'oceanic-limit': r.placedBy.oceanic,
-      'oldest-onlapped-crust': String(r.boundaries.pieces.find((q) => q.kind === 'oldest-onlapped-crust')?.properties.placed_by ?? 'not drawn'),
-      'necking-line': `parameters neckingFraction × tc0 = ${r.params.neckingFraction * r.params.tc0} m`,
-      'coupling-line': `parameter couplingThickness = ${r.params.couplingThickness} m`,
-    },
+    lines_placed_by: linesPlacedBy(r),
     lines_interrupted_by_moho_gap: r.boundaries.interruptions.filter((q) => q.cause === 'moho-gap').map((q) => ({ kind: q.kind, ...lonLat(r, q.x, q.y) })),
     lines_interrupted_by_unresolved_transition: r.boundaries.interruptions.filter((q) => q.cause === 'unresolved').map((q) => ({ kind: q.kind, ...lonLat(r, q.x, q.y) })),
     grid_rules: Object.fromEntries(DERIVED.map((d) => [d.name, APPLIES_TEXT[d.applies]])),

@@ -22,8 +22,17 @@ export function cellGeodesicArea(g: GridGeometry, fi: number, fj: number): numbe
   return geodesicRingArea(ring);
 }
 
-/** Geodesic area of each cell (m²), Float64Array, row-major. */
-export function cellAreas(g: GridGeometry, step = 16): Float64Array {
+/**
+ * Cell areas one row at a time: the exact geodesic areas on the coarse lattice, interpolated along
+ * a row on request, so a caller that only sums areas never holds a grid of them (8 bytes a cell).
+ */
+export interface CellAreaRows {
+  readonly geometry: GridGeometry;
+  /** Fill `out` (length nx) with the areas (m²) of row j. */
+  row(j: number, out: Float64Array): void;
+}
+
+export function cellAreaRows(g: GridGeometry, step = 16): CellAreaRows {
   const { nx, ny } = g;
   const li = Math.ceil((nx - 1) / step) + 1;
   const lj = Math.ceil((ny - 1) / step) + 1;
@@ -31,26 +40,35 @@ export function cellAreas(g: GridGeometry, step = 16): Float64Array {
   for (let b = 0; b < lj; b++) {
     for (let a = 0; a < li; a++) lattice[b * li + a] = cellGeodesicArea(g, Math.min(nx - 1, a * step), Math.min(ny - 1, b * step));
   }
-  const out = new Float64Array(nx * ny);
-  for (let j = 0; j < ny; j++) {
-    const fb = j / step;
-    const b0 = Math.min(lj - 1, Math.floor(fb));
-    const b1 = Math.min(lj - 1, b0 + 1);
-    const jb0 = Math.min(ny - 1, b0 * step);
-    const jb1 = Math.min(ny - 1, b1 * step);
-    const ty = jb1 > jb0 ? (j - jb0) / (jb1 - jb0) : 0;
-    for (let i = 0; i < nx; i++) {
-      const fa = i / step;
-      const a0 = Math.min(li - 1, Math.floor(fa));
-      const a1 = Math.min(li - 1, a0 + 1);
-      const ia0 = Math.min(nx - 1, a0 * step);
-      const ia1 = Math.min(nx - 1, a1 * step);
-      const tx = ia1 > ia0 ? (i - ia0) / (ia1 - ia0) : 0;
-      const top = lattice[b0 * li + a0] * (1 - tx) + lattice[b0 * li + a1] * tx;
-      const bot = lattice[b1 * li + a0] * (1 - tx) + lattice[b1 * li + a1] * tx;
-      out[j * nx + i] = top * (1 - ty) + bot * ty;
-    }
-  }
+  return {
+    geometry: g,
+    row(j: number, out: Float64Array): void {
+      const fb = j / step;
+      const b0 = Math.min(lj - 1, Math.floor(fb));
+      const b1 = Math.min(lj - 1, b0 + 1);
+      const jb0 = Math.min(ny - 1, b0 * step);
+      const jb1 = Math.min(ny - 1, b1 * step);
+      const ty = jb1 > jb0 ? (j - jb0) / (jb1 - jb0) : 0;
+      for (let i = 0; i < nx; i++) {
+        const fa = i / step;
+        const a0 = Math.min(li - 1, Math.floor(fa));
+        const a1 = Math.min(li - 1, a0 + 1);
+        const ia0 = Math.min(nx - 1, a0 * step);
+        const ia1 = Math.min(nx - 1, a1 * step);
+        const tx = ia1 > ia0 ? (i - ia0) / (ia1 - ia0) : 0;
+        const top = lattice[b0 * li + a0] * (1 - tx) + lattice[b0 * li + a1] * tx;
+        const bot = lattice[b1 * li + a0] * (1 - tx) + lattice[b1 * li + a1] * tx;
+        out[i] = top * (1 - ty) + bot * ty;
+      }
+    },
+  };
+}
+
+/** Geodesic area of each cell (m²), Float64Array, row-major. */
+export function cellAreas(g: GridGeometry, step = 16): Float64Array {
+  const rows = cellAreaRows(g, step);
+  const out = new Float64Array(g.nx * g.ny);
+  for (let j = 0; j < g.ny; j++) rows.row(j, out.subarray(j * g.nx, (j + 1) * g.nx));
   return out;
 }
 

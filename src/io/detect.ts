@@ -98,6 +98,8 @@ export function toDepthMetres(
   options: DepthOptions = {},
   fileNoData: number | null = null,
   linear?: { scale: number; offset: number },
+  /** Write the result over `raw` when it is a Float32Array the caller no longer needs (a decoded band). */
+  inPlace = false,
 ): { values: Float32Array; report: DepthReport } {
   const file = hints.fileName;
   const warnings: string[] = [];
@@ -131,7 +133,8 @@ export function toDepthMetres(
   // usual sentinels wherever they appear exactly. Comparisons also at float32 precision, since a
   // tag written as "-3.4028e38" matches a float32 sample only after rounding.
   const n = raw.length;
-  const values = new Float32Array(n);
+  // in place: each sample is read before its cell is written, and later passes read only `values`
+  const values = inPlace && raw instanceof Float32Array ? raw : new Float32Array(n);
   const masked: Record<string, number> = {};
   const explicit = new Map<number, number>();
   for (const e of [fileNoData ?? [], options.noData ?? []].flat()) {
@@ -144,14 +147,36 @@ export function toDepthMetres(
   let negCount = 0;
   let min1 = Infinity;
   let max1 = -Infinity;
+  // the no-data values as two flat arrays (explicit ones first: they win), and a gate: a value
+  // smaller in magnitude than every one of them (and than Float32's limit) needs no lookup at all
+  const keyF: number[] = [];
+  const keyV: number[] = [];
+  for (const [f, e] of explicit) keyF.push(f), keyV.push(e);
+  for (const [f, e] of sentinel) if (!explicit.has(f)) keyF.push(f), keyV.push(e);
+  const kf = Float64Array.from(keyF);
+  const nk = kf.length;
+  let gate = F32_MAX_NEAR;
+  for (let q = 0; q < nk; q++) gate = Math.min(gate, Math.abs(kf[q]));
+  // NaN cells (often most of the no data) are counted in a local; their key is made on the first
+  // one, so the report lists the kinds in the order met
+  let nanCells = 0;
   for (let k = 0; k < n; k++) {
     const v = raw[k];
     let hit: number | undefined;
-    if (v !== v) hit = NaN;
-    else if (!Number.isFinite(v)) hit = v;
-    else {
+    if (v !== v) {
+      if (nanCells++ === 0) masked.NaN = masked.NaN ?? 0;
+      values[k] = NaN;
+      continue;
+    } else if (v === Infinity || v === -Infinity) hit = v;
+    else if (v >= gate || v <= -gate) {
       const f = Math.fround(v);
-      hit = explicit.get(f) ?? sentinel.get(f) ?? (Math.abs(v) >= F32_MAX_NEAR ? Math.sign(v) * 3.4028e38 : undefined);
+      for (let q = 0; q < nk; q++) {
+        if (kf[q] === f) {
+          hit = keyV[q];
+          break;
+        }
+      }
+      if (hit === undefined && Math.abs(v) >= F32_MAX_NEAR) hit = Math.sign(v) * 3.4028e38;
     }
     if (hit !== undefined) {
       const key = String(hit);
@@ -173,6 +198,10 @@ export function toDepthMetres(
         if (x > max1) max1 = x;
       }
     }
+  }
+  if (nanCells) {
+    masked.NaN += nanCells;
+    total += nanCells;
   }
   if (total === n) throw new InputError(file, 'holds no data at all (every cell is a no-data value)');
 

@@ -89,6 +89,7 @@ export async function readGeoTiff(
     options,
     noData,
     { scale, offset },
+    true, // the decoded band is ours: converted where it lies
   );
   const bands = layout.samplesPerPixel;
   if (bands > 1) report.warnings.push(`has ${bands} bands: only band 1 is used`);

@@ -11,6 +11,8 @@ import { BlockError, deflateDecode, lzwDecode, packBitsDecode, zstdDecode, zstdI
 import type { Ifd } from './ifd.js';
 import type { TiffLayout } from './layout.js';
 
+const LITTLE_HOST = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
+
 export type BandArray = Uint8Array | Uint16Array | Uint32Array | Int8Array | Int16Array | Int32Array | Float32Array | Float64Array;
 
 if (new Uint8Array(Uint16Array.of(1).buffer)[0] !== 1) throw new Error('Taperline assumes a little-endian platform');
@@ -129,14 +131,24 @@ function undoHorizontal(buf: Uint8Array, rows: number, rowSamples: number, bps: 
 function undoFloatingPoint(buf: Uint8Array, rows: number, rowSamples: number, bps: number, spp: number): void {
   const rowBytes = rowSamples * bps;
   const tmp = new Uint8Array(rowBytes);
+  // the common case (one Float32 sample per pixel, little-endian host): whole words at once
+  const words = bps === 4 && spp === 1 && LITTLE_HOST ? new Uint32Array(tmp.buffer) : null;
   for (let r = 0; r < rows; r++) {
     const row = buf.subarray(r * rowBytes, (r + 1) * rowBytes);
-    for (let k = spp; k < rowBytes; k++) row[k] = (row[k] + row[k - spp]) & 0xff;
+    if (spp === 1) {
+      let acc = row[0];
+      for (let k = 1; k < rowBytes; k++) row[k] = acc = (acc + row[k]) & 0xff;
+    } else for (let k = spp; k < rowBytes; k++) row[k] = (row[k] + row[k - spp]) & 0xff;
     // Plane k holds byte k (most significant first) of every sample; write little-endian.
-    for (let k = 0; k < bps; k++) {
-      const plane = k * rowSamples;
-      const to = bps - 1 - k;
-      for (let s = 0; s < rowSamples; s++) tmp[s * bps + to] = row[plane + s];
+    if (words) {
+      const n = rowSamples;
+      for (let s = 0; s < n; s++) words[s] = ((row[s] << 24) | (row[n + s] << 16) | (row[2 * n + s] << 8) | row[3 * n + s]) >>> 0;
+    } else {
+      for (let k = 0; k < bps; k++) {
+        const plane = k * rowSamples;
+        const to = bps - 1 - k;
+        for (let s = 0; s < rowSamples; s++) tmp[s * bps + to] = row[plane + s];
+      }
     }
     row.set(tmp);
   }
