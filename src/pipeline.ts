@@ -77,6 +77,8 @@ const LINE_ONLY: readonly (keyof Params)[] = [
 export interface PipelineCache {
   projected?: { source: Float32Array; geometry: GridGeometry; values: Float32Array };
   areas?: CellAreaRows;
+  /** Rasters of vector evidence (isochron ages, the licence mask): depend on the file and the grid only. */
+  rasters?: Map<string, { source: VectorInput; geometry: GridGeometry; values: Float32Array | Uint8Array }>;
   entry: { basement: Float32Array; moho: GridInput; seabed: GridInput | null; key: string; derived: Derived; mohoA: Float32Array; seabedA: Float32Array | null; warnings: string[] } | null;
 }
 
@@ -241,6 +243,15 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
     ? isoIn.set.features.map((f) => ({ coords: toMap(isoIn, f.parts[0]), age: Number(f.properties.age_ma), label: f.properties.label as string | undefined }))
     : [];
 
+  /** A raster of a vector input, reused between interactive runs while the file and the grid stay. */
+  function rasterOf<T extends Float32Array | Uint8Array>(key: string, source: VectorInput, make: () => T): T {
+    const hit = options.cache?.rasters?.get(key);
+    if (hit && hit.source === source && sameGeometry(hit.geometry, geometry)) return hit.values as T;
+    const values = make();
+    if (options.cache) (options.cache.rasters ??= new Map()).set(key, { source, geometry, values });
+    return values;
+  }
+
   progress('domains', 0.55);
   const tcRaw = gridOf(derived.grids, 'crustal-thickness');
   const tc = params.smoothCells > 0 ? smoothGrid(tcRaw, geometry.nx, geometry.ny, params.smoothCells) : tcRaw;
@@ -315,12 +326,12 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   warnings.push(...classified.warnings);
 
   // The grids as shown and exported: each model only where it applies.
-  const isoAge = isochrons.length && seabed ? nearestIsochronAge(geometry, isochrons) : null;
+  const isoAge = isochrons.length && seabed ? rasterOf('isochron-age', isoIn!, () => nearestIsochronAge(geometry, isochrons)) : null;
   const applied = applyDomains(derived, classified.domains, params, isoAge, Boolean(options.keepGrids));
   warnings.push(...applied.warnings);
 
   progress('areas', 0.7);
-  const licenceMask = licence ? rasterizeRings(geometry, licence) : null;
+  const licenceMask = licence ? rasterOf('licence', licenceIn!, () => rasterizeRings(geometry, licence)) : null;
   const tally = (mask: Uint8Array | null): DomainArea[] => {
     const cells = new Float64Array(7);
     const m2 = new Float64Array(7);
