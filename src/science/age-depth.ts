@@ -34,17 +34,23 @@ export function asymptoticDepth(curve: AgeDepthCurve = 'GDH1'): number {
   return curve === 'PS77' ? 6400 : 5651;
 }
 
+/** Depths where the branches meet, computed once (the inverse runs per cell). */
+const PS77_D_SWITCH = ps77Young(PS77_SWITCH);
+const GDH1_D20_YOUNG = gdhYoung(20);
+const GDH1_D20_OLD = gdhOld(20);
+
 export function ageFromDepth(d: number, curve: AgeDepthCurve = 'GDH1'): number {
   if (d !== d) return NaN;
-  if (d <= zeroAgeDepth(curve)) return 0;
-  if (d >= asymptoticDepth(curve)) return Infinity;
   if (curve === 'PS77') {
-    const dSwitch = ps77Young(PS77_SWITCH);
-    if (d < dSwitch) return ((d - 2500) / 350) ** 2;
+    if (d <= 2500) return 0;
+    if (d >= 6400) return Infinity;
+    if (d < PS77_D_SWITCH) return ((d - 2500) / 350) ** 2;
     return -62.8 * Math.log((6400 - d) / 3200);
   }
+  if (d <= 2600) return 0;
+  if (d >= 5651) return Infinity;
   // GDH1 steps by 0.4 m at 20 Ma; a depth inside that step maps to 20 Ma.
-  if (d < gdhYoung(20)) return ((d - 2600) / 365) ** 2;
-  if (d < gdhOld(20)) return 20;
+  if (d < GDH1_D20_YOUNG) return ((d - 2600) / 365) ** 2;
+  if (d < GDH1_D20_OLD) return 20;
   return -Math.log((5651 - d) / 2473) / 0.0278;
 }
