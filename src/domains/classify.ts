@@ -94,14 +94,18 @@ export interface Classified {
   readonly warnings: string[];
 }
 
-const level = (l: Float32Array | number, k: number) => (typeof l === 'number' ? l : l[k]);
-
 export function classify(inp: ClassifyInput): Classified {
   const g = inp.geometry;
   const { nx, ny } = g;
   const n = nx * ny;
   const tc = inp.thickness;
   const force = inp.force;
+  const valid = inp.valid;
+  // the two thresholds as a per-cell field or one value (read in the hot loops below without a call)
+  const taperF = typeof inp.taperLevel === 'number' ? null : inp.taperLevel;
+  const taperC = typeof inp.taperLevel === 'number' ? inp.taperLevel : 0;
+  const oceanF = typeof inp.oceanLevel === 'number' ? null : inp.oceanLevel;
+  const oceanC = typeof inp.oceanLevel === 'number' ? inp.oceanLevel : 0;
   const warnings: string[] = [];
 
   // Edge seeds by position along the oceanward direction.
@@ -112,9 +116,9 @@ export function classify(inp: ClassifyInput): Classified {
   // corners are empty, e.g. reprojected, still has seeds)
   const boundary: number[] = [];
   for (let k = 0; k < n; k++) {
-    if (!inp.valid[k]) continue;
+    if (!valid[k]) continue;
     const i = k % nx;
-    if (i === 0 || i === nx - 1 || k < nx || k >= n - nx || !inp.valid[k - 1] || !inp.valid[k + 1] || !inp.valid[k - nx] || !inp.valid[k + nx]) boundary.push(k);
+    if (i === 0 || i === nx - 1 || k < nx || k >= n - nx || !valid[k - 1] || !valid[k + 1] || !valid[k - nx] || !valid[k + nx]) boundary.push(k);
   }
   let dmin = Infinity;
   let dmax = -Infinity;
@@ -136,28 +140,31 @@ export function classify(inp: ClassifyInput): Classified {
   const mc = new Uint8Array(n);
   const mo = new Uint8Array(n);
   for (let k = 0; k < n; k++) {
-    if (!inp.valid[k]) continue;
+    if (!valid[k]) continue;
     const f = force ? force[k] : FORCE_NONE;
     const t = tc[k];
     if (f === FORCE_CONTINENTAL) mc[k] = t === t ? 1 : 0;
     else if (f === FORCE_OCEANIC) mo[k] = t === t ? 1 : 0;
     else if (f === FORCE_NONE && t === t) {
-      if (t >= level(inp.taperLevel, k)) mc[k] = 1;
-      if (t >= level(inp.oceanLevel, k)) mo[k] = 1;
+      if (t >= (taperF ? taperF[k] : taperC)) mc[k] = 1;
+      if (t >= (oceanF ? oceanF[k] : oceanC)) mo[k] = 1;
     }
   }
   // Oceanic side first: crust at or above the oceanic-limit threshold connected to the oceanward edge.
   const co = components(mo, nx, ny);
   const oceanComp = new Uint8Array(co.count + 1);
   for (let k = 0; k < n; k++) if (oceanSeed[k] && co.labels[k]) oceanComp[co.labels[k]] = 1;
-  const onO = (k: number) => co.labels[k] > 0 && oceanComp[co.labels[k]] === 1;
+  const coLabels = co.labels;
+  // a cell on the oceanic side: in a component of the oceanic mask that reaches the oceanward edge
+  const onOcean = new Uint8Array(n);
+  for (let k = 0; k < n; k++) if (coLabels[k] > 0 && oceanComp[coLabels[k]] === 1) onOcean[k] = 1;
   // An oceanic component that also reaches the landward edge: nothing parts continent from ocean.
   const landO = new Uint8Array(co.count + 1);
-  for (let k = 0; k < n; k++) if (landSeed[k] && onO(k)) landO[co.labels[k]] = 1;
+  for (let k = 0; k < n; k++) if (landSeed[k] && onOcean[k]) landO[coLabels[k]] = 1;
   // Continental side: crust at or above the taper threshold connected to the landward edge without
   // passing through oceanic-side crust.
   const mcx = new Uint8Array(n);
-  for (let k = 0; k < n; k++) mcx[k] = mc[k] && !onO(k) ? 1 : 0;
+  for (let k = 0; k < n; k++) mcx[k] = mc[k] && !onOcean[k] ? 1 : 0;
   const cc = components(mcx, nx, ny);
   const contComp = new Uint8Array(cc.count + 1);
   for (let k = 0; k < n; k++) if (landSeed[k] && cc.labels[k]) contComp[cc.labels[k]] = 1;
@@ -168,7 +175,7 @@ export function classify(inp: ClassifyInput): Classified {
     const lc = cc.labels[k];
     if (!lc) continue;
     const i = k % nx;
-    if (oceanSeed[k] || (i > 0 && onO(k - 1)) || (i < nx - 1 && onO(k + 1)) || (k >= nx && onO(k - nx)) || (k < n - nx && onO(k + nx))) oceanLinked[lc] = 1;
+    if (oceanSeed[k] || (i > 0 && onOcean[k - 1]) || (i < nx - 1 && onOcean[k + 1]) || (k >= nx && onOcean[k - nx]) || (k < n - nx && onOcean[k + nx])) oceanLinked[lc] = 1;
   }
 
   const domains = new Uint8Array(n);
@@ -179,19 +186,19 @@ export function classify(inp: ClassifyInput): Classified {
   let merged = 0;
   const blockSizes = new Map<number, number>();
   for (let k = 0; k < n; k++) {
-    if (!inp.valid[k]) continue;
+    if (!valid[k]) continue;
     const lc = cc.labels[k];
     const f = force ? force[k] : FORCE_NONE;
     if (f !== FORCE_NONE) flags[k] |= FLAG_FORCED;
     if (f === FORCE_CONTINENTAL && mc[k]) side[k] = SIDE_C;
     else if (f === FORCE_OCEANIC && mo[k]) side[k] = SIDE_O;
-    else if (onO(k) && landO[co.labels[k]]) {
+    else if (onOcean[k] && landO[coLabels[k]]) {
       // oceanic-range crust runs unbroken to the landward edge: only crust thicker than any oceanic
       // crust is continental; the rest cannot be told apart
       merged++;
       if (tc[k] >= inp.oceanicMax) side[k] = SIDE_C;
       else flags[k] |= FLAG_UNRESOLVED;
-    } else if (onO(k)) side[k] = SIDE_O;
+    } else if (onOcean[k]) side[k] = SIDE_O;
     else if (lc > 0 && contComp[lc] === 1) side[k] = SIDE_C;
     else if (lc > 0 && !oceanLinked[lc]) blockSizes.set(lc, cc.sizes[lc]);
   }
@@ -230,10 +237,11 @@ export function classify(inp: ClassifyInput): Classified {
         if (i < 0 || j < 0 || i >= nx || j >= ny) return HIT_NONE;
         const q = j * nx + i;
         const t = tc[q];
-        if (!inp.valid[q] || t !== t) return HIT_NONE; // no data or no Moho: cannot tell
-        if (t < level(inp.taperLevel, q)) return HIT_GAP;
-        if (side[q] === SIDE_O) return HIT_OCEAN;
-        if (side[q] === SIDE_C && t >= level(inp.oceanLevel, q)) return HIT_THICK;
+        if (!valid[q] || t !== t) return HIT_NONE; // no data or no Moho: cannot tell
+        if (t < (taperF ? taperF[q] : taperC)) return HIT_GAP;
+        const sq = side[q];
+        if (sq === SIDE_O) return HIT_OCEAN;
+        if (sq === SIDE_C && t >= (oceanF ? oceanF[q] : oceanC)) return HIT_THICK;
       }
       return HIT_NONE;
     };
@@ -246,7 +254,7 @@ export function classify(inp: ClassifyInput): Classified {
     };
     const reassigned: number[] = [];
     for (let k = 0; k < n; k++) {
-      if (side[k] !== SIDE_C || (force && force[k] !== FORCE_NONE) || !(tc[k] < level(inp.oceanLevel, k))) continue;
+      if (side[k] !== SIDE_C || (force && force[k] !== FORCE_NONE) || !(tc[k] < (oceanF ? oceanF[k] : oceanC))) continue;
       const i = k % nx;
       const j = (k - i) / nx;
       const land = march(i, j, -1);
@@ -290,7 +298,7 @@ export function classify(inp: ClassifyInput): Classified {
     }
   }
   for (let k = 0; k < n; k++) {
-    if (!inp.valid[k] || side[k]) continue;
+    if (!valid[k] || side[k]) continue;
     const lc = cc.labels[k];
     if (lc > 0 && keepBlock.has(lc) && !(flags[k] & FLAG_UNRESOLVED)) {
       side[k] = SIDE_C;
@@ -300,7 +308,7 @@ export function classify(inp: ClassifyInput): Classified {
 
   // The rest (thin, small blocks, unresolved): enclosure decides. Moho gaps take no part.
   const rest = new Uint8Array(n);
-  for (let k = 0; k < n; k++) if (inp.valid[k] && !side[k] && tc[k] === tc[k]) rest[k] = 1;
+  for (let k = 0; k < n; k++) if (valid[k] && !side[k] && tc[k] === tc[k]) rest[k] = 1;
   const cr = components(rest, nx, ny);
   const touches = new Uint8Array(cr.count + 1); // bit 1: continental side, bit 2: oceanic side
   for (let k = 0; k < n; k++) {
@@ -315,9 +323,10 @@ export function classify(inp: ClassifyInput): Classified {
 
   const neck = inp.neckingFraction * inp.tc0;
   const counts: Record<string, number> = {};
+  const tally = new Float64Array(256);
   for (let k = 0; k < n; k++) {
     let d: DomainCode = 0;
-    if (inp.valid[k]) {
+    if (valid[k]) {
       const t = tc[k];
       const f = force ? force[k] : FORCE_NONE;
       if (t !== t) {
@@ -339,8 +348,10 @@ export function classify(inp: ClassifyInput): Classified {
       if (d === 5 && (t < inp.oceanicMin || t > inp.oceanicMax)) flags[k] |= FLAG_ATYPICAL_OCEANIC;
     }
     domains[k] = d;
-    counts[d] = (counts[d] ?? 0) + 1;
+    tally[d]++;
   }
+  // integer keys: listed in ascending order, only the codes met
+  for (let d = 0; d < tally.length; d++) if (tally[d]) counts[d] = tally[d];
   if (!contComp.some((v) => v === 1)) warnings.push('no continental crust reaches the landward edge: no continental side found (check the oceanward direction)');
   if (!oceanComp.some((v) => v === 1)) warnings.push('no crust above the oceanic-limit threshold reaches the oceanward edge: no oceanic side found');
   return { domains, flags, blocks, minBlockKm2, counts, warnings };
