@@ -42,6 +42,8 @@ export async function decodeBand(ifd: Ifd, layout: TiffLayout, sparseFill: numbe
   const block = new Uint8Array(blockWidth * blockHeight * pixelBytes);
   if (compression === 50000) await zstdInit();
   const what = tiled ? 'tile' : 'strip';
+  // the common layout (Float32, one sample, floating-point predictor): rows go straight into the band
+  const words = layout.kind === 'float' && bps === 4 && spp === 1 && predictor === 3 && LITTLE_HOST ? new Uint32Array(out.buffer) : null;
 
   for (let b = 0; b < layout.offsets.length; b++) {
     const bx = b % blocksAcross;
@@ -78,6 +80,10 @@ export async function decodeBand(ifd: Ifd, layout: TiffLayout, sparseFill: numbe
       const why = err instanceof BlockError ? err.message : `${err instanceof Error ? err.message : String(err)}`;
       throw new InputError(ifd.file, `${what} ${b} cannot be decoded (${why || 'damaged data'}): the file is damaged or truncated`);
     }
+    if (words) {
+      floatPredictorInto(buf, blockWidth, usedRows, words, y0 * width + x0, width, cols);
+      continue;
+    }
     let native = ifd.little;
     if (predictor === 2) undoHorizontal(buf, rows, blockWidth * spp, bps, spp, ifd.little);
     else if (predictor === 3) {
@@ -87,6 +93,26 @@ export async function decodeBand(ifd: Ifd, layout: TiffLayout, sparseFill: numbe
     place(buf, outBytes, { x0, y0, cols, usedRows, blockWidth, width, bps, pixelBytes, native });
   }
   return out;
+}
+
+/**
+ * The floating-point predictor for one-sample Float32 blocks, undone row by row straight into the
+ * band (on a little-endian host): the byte differences summed, then the four byte planes (most
+ * significant first) joined into words at their place in the band. Padding rows and columns of an
+ * edge block are not placed.
+ */
+function floatPredictorInto(buf: Uint8Array, blockWidth: number, usedRows: number, words: Uint32Array, start: number, width: number, cols: number): void {
+  const rowBytes = blockWidth * 4;
+  for (let r = 0; r < usedRows; r++) {
+    const o = r * rowBytes;
+    let acc = buf[o];
+    for (let k = o + 1; k < o + rowBytes; k++) buf[k] = acc = (acc + buf[k]) & 0xff;
+    const p1 = o + blockWidth;
+    const p2 = p1 + blockWidth;
+    const p3 = p2 + blockWidth;
+    const d = start + r * width;
+    for (let c = 0; c < cols; c++) words[d + c] = ((buf[o + c] << 24) | (buf[p1 + c] << 16) | (buf[p2 + c] << 8) | buf[p3 + c]) >>> 0;
+  }
 }
 
 /** Copy sample 0 of each pixel of a decoded block into the band, byte-swapping when needed. */
