@@ -32,6 +32,26 @@ export interface CellAreaRows {
   row(j: number, out: Float64Array): void;
 }
 
+/**
+ * For each index 0…n−1 along one axis: the two lattice nodes around it (lattice every `step`
+ * indices, the last node on the last index) and the interpolation weight between them.
+ */
+function brackets(n: number, step: number, nodes: number): { lo: Int32Array; hi: Int32Array; t: Float64Array } {
+  const lo = new Int32Array(n);
+  const hi = new Int32Array(n);
+  const t = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const a0 = Math.min(nodes - 1, Math.floor(i / step));
+    const a1 = Math.min(nodes - 1, a0 + 1);
+    const i0 = Math.min(n - 1, a0 * step);
+    const i1 = Math.min(n - 1, a1 * step);
+    lo[i] = a0;
+    hi[i] = a1;
+    t[i] = i1 > i0 ? (i - i0) / (i1 - i0) : 0;
+  }
+  return { lo, hi, t };
+}
+
 export function cellAreaRows(g: GridGeometry, step = 16): CellAreaRows {
   const { nx, ny } = g;
   const li = Math.ceil((nx - 1) / step) + 1;
@@ -40,24 +60,20 @@ export function cellAreaRows(g: GridGeometry, step = 16): CellAreaRows {
   for (let b = 0; b < lj; b++) {
     for (let a = 0; a < li; a++) lattice[b * li + a] = cellGeodesicArea(g, Math.min(nx - 1, a * step), Math.min(ny - 1, b * step));
   }
+  const cols = brackets(nx, step, li);
+  const rows = brackets(ny, step, lj);
   return {
     geometry: g,
     row(j: number, out: Float64Array): void {
-      const fb = j / step;
-      const b0 = Math.min(lj - 1, Math.floor(fb));
-      const b1 = Math.min(lj - 1, b0 + 1);
-      const jb0 = Math.min(ny - 1, b0 * step);
-      const jb1 = Math.min(ny - 1, b1 * step);
-      const ty = jb1 > jb0 ? (j - jb0) / (jb1 - jb0) : 0;
+      const r0 = rows.lo[j] * li;
+      const r1 = rows.hi[j] * li;
+      const ty = rows.t[j];
       for (let i = 0; i < nx; i++) {
-        const fa = i / step;
-        const a0 = Math.min(li - 1, Math.floor(fa));
-        const a1 = Math.min(li - 1, a0 + 1);
-        const ia0 = Math.min(nx - 1, a0 * step);
-        const ia1 = Math.min(nx - 1, a1 * step);
-        const tx = ia1 > ia0 ? (i - ia0) / (ia1 - ia0) : 0;
-        const top = lattice[b0 * li + a0] * (1 - tx) + lattice[b0 * li + a1] * tx;
-        const bot = lattice[b1 * li + a0] * (1 - tx) + lattice[b1 * li + a1] * tx;
+        const a0 = cols.lo[i];
+        const a1 = cols.hi[i];
+        const tx = cols.t[i];
+        const top = lattice[r0 + a0] * (1 - tx) + lattice[r0 + a1] * tx;
+        const bot = lattice[r1 + a0] * (1 - tx) + lattice[r1 + a1] * tx;
         out[i] = top * (1 - ty) + bot * ty;
       }
     },
