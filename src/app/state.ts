@@ -10,7 +10,7 @@ import type { LoadedFile } from './engine.js';
 /** What the browser tests (and a curious user's console) can read of the running app. */
 declare global {
   interface Window {
-    __taperline: { ready: boolean; runs: number; lastMillis: number; error: string | null; colourings: () => number; state: AppState; map: import('maplibre-gl').Map; planned?: number };
+    __taperline: { ready: boolean; runs: number; lastMillis: number; drawnMillis: number; error: string | null; colourings: () => number; state: AppState; map: import('maplibre-gl').Map; planned?: number };
   }
 }
 

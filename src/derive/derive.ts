@@ -11,7 +11,7 @@
  * every cell); derive/applicability turns them into what is shown and exported, per domain.
  */
 
-import { ageFromDepth, type AgeDepthCurve } from '../science/age-depth.js';
+import { ageTable, type AgeDepthCurve } from '../science/age-depth.js';
 import { LITHOLOGIES, type Lithology } from '../science/compaction.js';
 import { makeBetaInverter, type McKenzieParams } from '../science/mckenzie.js';
 import type { Params } from '../params.js';
@@ -108,6 +108,9 @@ export function derive(input: DeriveInput, p: Params, keep?: ReadonlySet<Derived
   } = p;
   const curve: AgeDepthCurve = p.ageCurve;
   const other: AgeDepthCurve = curve === 'GDH1' ? 'PS77' : 'GDH1';
+  // the age–depth inverse from tables (within 2e-4 Myr of the formula; science/age-depth.ts)
+  const ageMain = ageTable(curve);
+  const ageOther = ageTable(other);
   const lith = lithologyOf(p);
   const compaction = p.sedimentMode === 'compaction';
   const mk = mckenzieOf(p);
@@ -235,8 +238,8 @@ export function derive(input: DeriveInput, p: Params, keep?: ReadonlySet<Derived
     let aMin = NaN;
     let aMax = NaN;
     if (Y === Y) {
-      aMin = Math.min(ageFromDepth(Y - dAge, curve), ageFromDepth(Y - dAge, other));
-      aMax = Math.max(ageFromDepth(Y + dAge, curve), ageFromDepth(Y + dAge, other));
+      aMin = Math.min(ageMain(Y - dAge), ageOther(Y - dAge));
+      aMax = Math.max(ageMain(Y + dAge), ageOther(Y + dAge));
     }
     oOceanicAgeMin[k] = aMin;
     oOceanicAgeMax[k] = aMax;

@@ -108,8 +108,15 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     const after = await meanLon();
     // the demo thins westward at ~8 km per 50 km: 6 km crust lies ~25 km (≈0.27°) landward of the 2 km line
     expect(before - after).toBeGreaterThan(0.15);
-    const ms = await p.page.evaluate(() => window.__taperline.lastMillis);
-    console.log(`recompute after a parameter change on the demo: ${ms.toFixed(0)} ms`);
+    const timing = () => p.page.evaluate(() => `${window.__taperline.lastMillis.toFixed(0)} ms computed, ${window.__taperline.drawnMillis.toFixed(0)} ms until the map is drawn`);
+    console.log(`recompute after a domain/line parameter change on the demo: ${await timing()}`);
+    // a parameter of the derived grids: the full recompute
+    runs = await p.page.evaluate(() => window.__taperline.runs);
+    await p.page.evaluate(() => document.querySelector('#p-tc0')?.closest('details')?.setAttribute('open', ''));
+    await p.page.fill('#p-tc0', '34000');
+    await p.page.dispatchEvent('#p-tc0', 'change');
+    await waitReady(p.page, runs + 1);
+    console.log(`full recompute after a reference-thickness change on the demo: ${await timing()}`);
   });
 
   it('loads a GeoTIFF through the file input and shows what the reader detected', async () => {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { airyCrustFromLoads, airyWaterDepth } from '../../src/science/airy.js';
 import { LITHOLOGIES, meanPorosity, meanSedimentDensity } from '../../src/science/compaction.js';
-import { ageFromDepth, depthFromAge, PS77_SWITCH } from '../../src/science/age-depth.js';
+import { ageFromDepth, ageTable, depthFromAge, PS77_SWITCH } from '../../src/science/age-depth.js';
 import {
   betaFromSubsidence,
   initialSubsidence,
@@ -141,6 +141,21 @@ describe('properties', () => {
       for (let t = 0.5; t < 180; t += 1.7) expect(ageFromDepth(depthFromAge(t, curve), curve)).toBeCloseTo(t, 8);
       expect(ageFromDepth(1000, curve)).toBe(0);
       expect(ageFromDepth(7000, curve)).toBe(Infinity);
+    }
+  });
+  it('the age table agrees with the age–depth formula within 2e-4 Myr at every depth, limits included', () => {
+    for (const curve of ['GDH1', 'PS77'] as const) {
+      const table = ageTable(curve);
+      let worst = 0;
+      // every 0.037 m (not a multiple of the table step) from above sea level to beyond the asymptote
+      for (let d = -100; d < 7000; d += 0.037) {
+        const a = ageFromDepth(d, curve);
+        const b = table(d);
+        if (a === Infinity || a === 0) expect(b, `${curve} at ${d} m`).toBe(a);
+        else worst = Math.max(worst, Math.abs(a - b));
+      }
+      expect(worst, curve).toBeLessThan(2e-4);
+      expect(table(NaN)).toBeNaN();
     }
   });
   it('compaction: mean density equals a numerical integration of φ(z) (Simpson, 2000 intervals)', () => {
