@@ -152,7 +152,7 @@ mountSection(slots.section, store, actions);
 
 // ---------------------------------------------------------------- map layers from the state
 const empty = { type: 'FeatureCollection', features: [] };
-store.subscribe(['result', 'layer', 'opacity'], (s) => view.overlay.setProps({ layers: raster.layers(s.result, s.layer, s.opacity, window.__taperline.runs) }));
+store.subscribe(['result', 'layer', 'opacity'], (s) => view.overlay.setProps({ layers: raster.layers(s.result, s.layer, s.opacity) }));
 store.subscribe(['result', 'files', 'visible', 'planResult'], (s) => {
   const r = s.result;
   const vec = (role: string) => s.files.find((f) => f.kind === 'vector' && f.role === role && !f.error)?.display ?? empty;
@@ -176,6 +176,7 @@ store.subscribe(['files'], (s) => {
 });
 store.subscribe(['status', 'result'], (s) => {
   slots.statusText.textContent = s.status.text;
+  slots.statusText.title = s.status.text; // the whole text on hover (the line may be cut)
   slots.statusText.classList.toggle('error', s.status.error);
   const n = s.result?.summary.warnings.length ?? 0;
   slots.statusWarnings.textContent = s.result ? countOf(n, 'warning') : '';

@@ -108,7 +108,7 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     const after = await meanLon();
     // the demo thins westward at ~8 km per 50 km: 6 km crust lies ~25 km (≈0.27°) landward of the 2 km line
     expect(before - after).toBeGreaterThan(0.15);
-    const timing = () => p.page.evaluate(() => `${window.__taperline.lastMillis.toFixed(0)} ms computed, ${window.__taperline.drawnMillis.toFixed(0)} ms until the map is drawn`);
+    const timing = () => p.page.evaluate(() => `${window.__taperline.lastMillis.toFixed(0)} ms computed, ${window.__taperline.drawnMillis.toFixed(0)} ms until the first frame with the new layers`);
     console.log(`recompute after a domain/line parameter change on the demo: ${await timing()}`);
     // a parameter of the derived grids: the full recompute
     runs = await p.page.evaluate(() => window.__taperline.runs);

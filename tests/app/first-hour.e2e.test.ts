@@ -45,7 +45,7 @@ describe.skipIf(!haveChromium)('the first hour with your own data', () => {
     await app?.close();
   });
 
-  it('opacity changes recolour nothing (the colouring is cached per layer and run)', async () => {
+  it('opacity changes and runs that leave the shown grid as it was recolour nothing (the colouring is cached per layer and content)', async () => {
     const before = await p.page.evaluate(() => window.__taperline.colourings());
     for (const v of ['0.2', '0.4', '0.6', '0.9', '0.5']) {
       await p.page.locator('#opacity').fill(v);
@@ -53,8 +53,27 @@ describe.skipIf(!haveChromium)('the first hour with your own data', () => {
     }
     expect(await p.page.evaluate(() => window.__taperline.state.opacity)).toBe(0.5);
     expect(await p.page.evaluate(() => window.__taperline.colourings())).toBe(before);
+    // a line parameter changes no crustal-thickness value: the run recolours nothing
+    expect(await p.page.evaluate(() => window.__taperline.state.layer)).toBe('crustal-thickness');
+    const runs = await p.page.evaluate(() => window.__taperline.runs);
+    await p.page.evaluate(() => document.querySelector('#p-taperThreshold')?.closest('details')?.setAttribute('open', ''));
+    await p.page.fill('#p-taperThreshold', '2500');
+    await p.page.dispatchEvent('#p-taperThreshold', 'change');
+    await waitReady(p.page, runs + 1);
+    expect(await p.page.evaluate(() => window.__taperline.colourings())).toBe(before);
+    // the domains, shown, change with the necking fraction (necking ↔ proximal): recoloured
+    await p.page.selectOption('#layer-select', 'domains');
+    const withDomains = await p.page.evaluate(() => window.__taperline.colourings());
+    expect(withDomains).toBeGreaterThan(before);
+    const runs2 = await p.page.evaluate(() => window.__taperline.runs);
+    await p.page.evaluate(() => document.querySelector('#p-neckingFraction')?.closest('details')?.setAttribute('open', ''));
+    await p.page.fill('#p-neckingFraction', '0.6');
+    await p.page.dispatchEvent('#p-neckingFraction', 'change');
+    await waitReady(p.page, runs2 + 1);
+    const afterRun = await p.page.evaluate(() => window.__taperline.colourings());
+    expect(afterRun).toBeGreaterThan(withDomains);
     await p.page.selectOption('#layer-select', 'sediment-thickness');
-    expect(await p.page.evaluate(() => window.__taperline.colourings())).toBeGreaterThan(before);
+    expect(await p.page.evaluate(() => window.__taperline.colourings())).toBeGreaterThan(afterRun);
   });
 
   it('a file reloaded twice in quick succession ends with the second request\'s result', async () => {

@@ -1,7 +1,9 @@
 /**
  * The raster layer: the shown grid coloured into 64-cell tiles (BitmapLayers over deck.gl). The
- * colouring is cached per (layer, run): an opacity change or a redraw reuses the same images and
- * only changes layer props; `colourings` counts the tiles actually coloured (a browser test reads it).
+ * colouring is cached per (layer, content): an opacity change, a redraw, or a run that leaves the
+ * shown grid's values as they were (a line parameter change with crustal thickness shown) reuses the
+ * same images and only changes layer props; `colourings` counts the tiles actually coloured (a
+ * browser test reads it).
  */
 
 import { BitmapLayer } from '@deck.gl/layers';
@@ -18,6 +20,24 @@ export function rampFor(name: string, v: Float32Array): RampSpec {
   return r;
 }
 
+/** Two 32-bit FNV-1a hashes (different offsets) over the samples' bytes and the length, memoised per array. */
+const contentKeys = new WeakMap<object, string>();
+function contentKey(values: Float32Array | Uint8Array): string {
+  const hit = contentKeys.get(values);
+  if (hit) return hit;
+  const words = values.byteLength % 4 === 0 && values.byteOffset % 4 === 0 ? new Uint32Array(values.buffer, values.byteOffset, values.byteLength / 4) : Uint32Array.from(values);
+  let a = 0x811c9dc5;
+  let b = 0x01000193 ^ 0x5bd1e995;
+  for (let k = 0; k < words.length; k++) {
+    const w = words[k];
+    a = Math.imul(a ^ w, 0x01000193);
+    b = Math.imul(b ^ (w >>> 16) ^ (w << 16), 0x01000193);
+  }
+  const key = `${values.length}:${(a >>> 0).toString(36)}:${(b >>> 0).toString(36)}`;
+  contentKeys.set(values, key);
+  return key;
+}
+
 export class RasterLayer {
   colourings = 0;
   private tiles: Tile[] = [];
@@ -31,7 +51,7 @@ export class RasterLayer {
     return this.ramp;
   }
 
-  layers(r: DisplayResult | null, layer: string, opacity: number, run: number): BitmapLayer[] {
+  layers(r: DisplayResult | null, layer: string, opacity: number): BitmapLayer[] {
     if (!r) return [];
     const g = r.geometry;
     const isDomains = layer === 'domains';
@@ -43,7 +63,7 @@ export class RasterLayer {
       this.tileKey = gk;
       this.imageKey = '';
     }
-    const key = `${layer}:${run}`;
+    const key = `${layer}:${contentKey(values)}`;
     if (key !== this.imageKey) {
       this.ramp = isDomains ? null : rampFor(layer, values as Float32Array);
       const spec = isDomains ? { kind: 'domains' as const } : { kind: 'ramp' as const, ramp: this.ramp! };
