@@ -67,6 +67,15 @@ const TABLE_MARGIN = 200;
  * (tests/science/science.test.ts); derive calls it four times a cell.
  */
 export function ageTable(curve: AgeDepthCurve = 'GDH1'): (d: number) => number {
+  // one table per curve, made once: the same function every call (so callers' call sites stay monomorphic)
+  let f = tables.get(curve);
+  if (!f) tables.set(curve, (f = makeAgeTable(curve)));
+  return f;
+}
+
+const tables = new Map<AgeDepthCurve, (d: number) => number>();
+
+function makeAgeTable(curve: AgeDepthCurve): (d: number) => number {
   const d0 = zeroAgeDepth(curve);
   const dEnd = asymptoticDepth(curve) - TABLE_MARGIN;
   const m = Math.ceil((dEnd - d0) / TABLE_STEP);

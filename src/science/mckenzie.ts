@@ -115,7 +115,31 @@ export function betaFromSubsidence(Y: number, t: number, p: McKenzieParams, form
  * table the same way. Where S is not monotone in β (possible for odd parameters) the inverse falls
  * back to Brent per cell. `total(β)` is S(β); `invert(Y)` is β (∞ at or beyond the β = ∞ value).
  */
-export function makeBetaInverter(t: number, p: McKenzieParams, form: ThermalForm = 'series', samples = 16384) {
+export function makeBetaInverter(t: number, p: McKenzieParams, form: ThermalForm = 'series', samples = 16384): BetaInverter {
+  // made once per parameter set (the last few kept): repeated runs with the same parameters get the
+  // same functions back, so the per-cell call sites in derive stay monomorphic
+  const key = JSON.stringify([t, p, form, samples]);
+  let inv = inverters.get(key);
+  if (inv) {
+    inverters.delete(key); // most recent last
+  } else {
+    inv = buildBetaInverter(t, p, form, samples);
+    if (inverters.size >= 8) inverters.delete(inverters.keys().next().value!);
+  }
+  inverters.set(key, inv);
+  return inv;
+}
+
+export interface BetaInverter {
+  readonly invert: (Y: number) => number;
+  readonly total: (beta: number) => number;
+  readonly sMax: number;
+  readonly monotone: boolean;
+}
+
+const inverters = new Map<string, BetaInverter>();
+
+function buildBetaInverter(t: number, p: McKenzieParams, form: ThermalForm, samples: number): BetaInverter {
   const ss = new Float64Array(samples + 1);
   for (let k = 0; k <= samples; k++) ss[k] = totalSubsidence(k === samples ? Infinity : 1 / (1 - k / samples), t, p, form);
   let monotone = true;
