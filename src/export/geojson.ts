@@ -82,11 +82,23 @@ export function domainsGeoJson(r: PipelineResult, which: 'regional' | 'licence' 
   return domainFeatures(r, which).collection;
 }
 
+type DomainSet = { collection: FeatureCollection; mapRings: Pos[][][] };
+/**
+ * Made once per run and kind (keyed by the run's classification): the GeoJSON files, the summary's
+ * licence areas and both GeoPackage layers share them. Treated as read-only by every caller.
+ */
+const domainSets = new WeakMap<object, Partial<Record<'regional' | 'licence', DomainSet>>>();
+
 /** Domain polygons with their rings in the analysis CRS too (for projected layers). */
-export function domainFeatures(r: PipelineResult, which: 'regional' | 'licence' = 'regional'): { collection: FeatureCollection; mapRings: Pos[][][] } {
-  const whole = wholeDomains(r);
-  const licence = r.evidence.licence;
-  if (which === 'regional' || !licence) return whole;
+export function domainFeatures(r: PipelineResult, which: 'regional' | 'licence' = 'regional'): DomainSet {
+  const kind = which === 'licence' && r.evidence.licence ? 'licence' : 'regional';
+  let memo = domainSets.get(r.classified);
+  if (!memo) domainSets.set(r.classified, (memo = {}));
+  return (memo[kind] ??= kind === 'regional' ? wholeDomains(r) : clippedDomains(r, domainFeatures(r, 'regional')));
+}
+
+function clippedDomains(r: PipelineResult, whole: DomainSet): DomainSet {
+  const licence = r.evidence.licence!;
   // exact intersection with the licence in the analysis CRS, then geodesic areas
   const g = r.geometry;
   const features: Feature[] = [];
