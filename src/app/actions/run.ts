@@ -30,6 +30,8 @@ export async function run(ctx: Ctx): Promise<void> {
     return;
   }
   store.update({ running: true });
+  window.__taperline.ready = false; // until this run's result is drawn (or the run ends without one)
+  let drawing = false;
   const t0 = performance.now();
   const showProgress = setTimeout(() => store.update({ progress: { stage: 'starting', fraction: 0 } }), 300);
   ctx.status('Computing…');
@@ -48,15 +50,32 @@ export async function run(ctx: Ctx): Promise<void> {
     store.update({ result });
     const n = result.summary.warnings.length;
     store.update({ status: { text: `Done in ${num(performance.now() - t0)} ms (pipeline ${num(result.millis)} ms).`, error: false, warnings: n } });
-    // request to the first frame drawn with the new layers (the browser tests print it)
-    requestAnimationFrame(() => requestAnimationFrame(() => (window.__taperline.drawnMillis = performance.now() - t0)));
-    ctx.view.map.once('idle', () => (window.__taperline.ready = true));
+    // ready (for the browser tests) once the map is idle and the time from the request to the first
+    // frame drawn with the new layers is recorded (the tests print it)
+    drawing = true;
+    let drawn = false;
+    let idle = false;
+    const settle = () => {
+      if (drawn && idle) window.__taperline.ready = true;
+    };
+    requestAnimationFrame(() =>
+      requestAnimationFrame(() => {
+        window.__taperline.drawnMillis = performance.now() - t0;
+        drawn = true;
+        settle();
+      }),
+    );
+    ctx.view.map.once('idle', () => {
+      idle = true;
+      settle();
+    });
     ctx.view.map.triggerRepaint();
   } catch (err) {
     const msg = (err as Error).message;
     window.__taperline.error = msg;
     ctx.status(msg === 'cancelled' ? 'Cancelled: the previous results stay on the map.' : `Could not compute: ${msg}`, msg !== 'cancelled');
   } finally {
+    if (!drawing) window.__taperline.ready = true; // failed or cancelled: nothing new to draw
     clearTimeout(showProgress);
     store.update({ running: false, progress: null });
     if (rerun) {
