@@ -107,8 +107,8 @@ Writes DIR/boundaries.geojson (inside the licence when one is given; then also
 boundaries-whole-grid.geojson), DIR/boundary-lines.geojson (one feature per continuous line; likewise),
 DIR/domains.geojson, DIR/boundaries.gpkg (every vector layer in WGS 84 and in the analysis CRS),
 DIR/grids/<name>.tif (one cloud-optimized Float32 GeoTIFF per derived grid written, see --grids;
-metres unless stated, each no data outside the domains where its model applies; domains.tif and unbounded-beta.tif as
-UInt8 with colour tables) and DIR/summary.json (parameters, inputs with sha256, detections, the rule
+metres unless stated, each no data outside the domains where its model applies; domains.tif and
+unbounded-beta.tif as UInt8 with colour tables) and DIR/summary.json (parameters, inputs with sha256, detections, the rule
 of every grid, flagged cells, areas, lengths, suspect picks, warnings); a grid with no value anywhere
 is not written (listed in the summary). Every field: docs/outputs.md. Files appear only when the run
 succeeds; a previous run's files that this run does not write are removed (.taperline-outputs lists
