@@ -108,11 +108,12 @@ boundaries-whole-grid.geojson), DIR/boundary-lines.geojson (one feature per cont
 DIR/domains.geojson, DIR/boundaries.gpkg (every vector layer in WGS 84 and in the analysis CRS),
 DIR/grids/<name>.tif (one cloud-optimized Float32 GeoTIFF per derived grid written, see --grids;
 metres unless stated, each no data outside the domains where its model applies; domains.tif and
-unbounded-beta.tif as UInt8 with colour tables) and DIR/summary.json (parameters, inputs with sha256, detections, the rule
-of every grid, flagged cells, areas, lengths, suspect picks, warnings); a grid with no value anywhere
-is not written (listed in the summary). Every field: docs/outputs.md. Files appear only when the run
-succeeds; a previous run's files that this run does not write are removed (.taperline-outputs lists
-what was written); an output folder holding an input is refused. Exit status: 0 success; 2 bad input (message names the file and the problem); 1 otherwise.
+unbounded-beta.tif as UInt8 with colour tables) and DIR/summary.json (parameters, inputs with
+sha256, detections, the rule of every grid, flagged cells, areas, lengths, suspect picks, warnings);
+a grid with no value anywhere is not written (listed in the summary). Every field: docs/outputs.md.
+Files appear only when the run succeeds; a previous run's files that this run does not write are
+removed (.taperline-outputs lists what was written); an output folder holding an input is refused.
+Exit status: 0 success; 2 bad input (message names the file and the problem); 1 otherwise.
 
 Params file keys (JSON object; every key optional):
 ${paramLines}
