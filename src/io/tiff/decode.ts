@@ -11,8 +11,6 @@ import { BlockError, deflateDecode, lzwDecode, packBitsDecode, zstdDecode, zstdI
 import type { Ifd } from './ifd.js';
 import type { TiffLayout } from './layout.js';
 
-const LITTLE_HOST = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
-
 export type BandArray = Uint8Array | Uint16Array | Uint32Array | Int8Array | Int16Array | Int32Array | Float32Array | Float64Array;
 
 if (new Uint8Array(Uint16Array.of(1).buffer)[0] !== 1) throw new Error('Taperline assumes a little-endian platform');
@@ -43,7 +41,8 @@ export async function decodeBand(ifd: Ifd, layout: TiffLayout, sparseFill: numbe
   if (compression === 50000) await zstdInit();
   const what = tiled ? 'tile' : 'strip';
   // the common layout (Float32, one sample, floating-point predictor): rows go straight into the band
-  const words = layout.kind === 'float' && bps === 4 && spp === 1 && predictor === 3 && LITTLE_HOST ? new Uint32Array(out.buffer) : null;
+  // (the host is little-endian: checked when this module loads)
+  const words = layout.kind === 'float' && bps === 4 && spp === 1 && predictor === 3 ? new Uint32Array(out.buffer) : null;
 
   for (let b = 0; b < layout.offsets.length; b++) {
     const bx = b % blocksAcross;
@@ -97,8 +96,8 @@ export async function decodeBand(ifd: Ifd, layout: TiffLayout, sparseFill: numbe
 
 /**
  * The floating-point predictor for one-sample Float32 blocks, undone row by row straight into the
- * band (on a little-endian host): the byte differences summed, then the four byte planes (most
- * significant first) joined into words at their place in the band. Padding rows and columns of an
+ * band: the byte differences summed, then the four byte planes (most
+ * significant first) joined into little-endian words at their place in the band. Padding rows and columns of an
  * edge block are not placed.
  */
 function floatPredictorInto(buf: Uint8Array, blockWidth: number, usedRows: number, words: Uint32Array, start: number, width: number, cols: number): void {
@@ -155,26 +154,17 @@ function undoHorizontal(buf: Uint8Array, rows: number, rowSamples: number, bps: 
 
 /** Floating-point predictor: bytes differenced along the row, then regrouped from byte planes. */
 function undoFloatingPoint(buf: Uint8Array, rows: number, rowSamples: number, bps: number, spp: number): void {
+  // (one-sample Float32 blocks go through floatPredictorInto instead)
   const rowBytes = rowSamples * bps;
   const tmp = new Uint8Array(rowBytes);
-  // the common case (one Float32 sample per pixel, little-endian host): whole words at once
-  const words = bps === 4 && spp === 1 && LITTLE_HOST ? new Uint32Array(tmp.buffer) : null;
   for (let r = 0; r < rows; r++) {
     const row = buf.subarray(r * rowBytes, (r + 1) * rowBytes);
-    if (spp === 1) {
-      let acc = row[0];
-      for (let k = 1; k < rowBytes; k++) row[k] = acc = (acc + row[k]) & 0xff;
-    } else for (let k = spp; k < rowBytes; k++) row[k] = (row[k] + row[k - spp]) & 0xff;
+    for (let k = spp; k < rowBytes; k++) row[k] = (row[k] + row[k - spp]) & 0xff;
     // Plane k holds byte k (most significant first) of every sample; write little-endian.
-    if (words) {
-      const n = rowSamples;
-      for (let s = 0; s < n; s++) words[s] = ((row[s] << 24) | (row[n + s] << 16) | (row[2 * n + s] << 8) | row[3 * n + s]) >>> 0;
-    } else {
-      for (let k = 0; k < bps; k++) {
-        const plane = k * rowSamples;
-        const to = bps - 1 - k;
-        for (let s = 0; s < rowSamples; s++) tmp[s * bps + to] = row[plane + s];
-      }
+    for (let k = 0; k < bps; k++) {
+      const plane = k * rowSamples;
+      const to = bps - 1 - k;
+      for (let s = 0; s < rowSamples; s++) tmp[s * bps + to] = row[plane + s];
     }
     row.set(tmp);
   }
