@@ -66,6 +66,8 @@ export interface PipelineOptions {
    * holds one copy of each kept grid and none of the others. Not with `cache` (that reuses raw grids).
    */
   readonly keepGrids?: ReadonlySet<DerivedName>;
+  /** The oceanward direction to use instead of fitting it (the uncertainty sweep holds it fixed). */
+  readonly oceanward?: Oceanward;
 }
 
 /** Parameters that only affect domains and lines: changing them does not recompute the derived grids. */
@@ -153,7 +155,12 @@ function analysisGrid(basement: GridInput, warnings: string[], cache?: PipelineC
   return { geometry, basementValues: values };
 }
 
-export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {}): PipelineResult {
+/**
+ * The pipeline up to the domains: analysis grid, derived grids, oceanward direction, evidence in the
+ * analysis CRS, calibrated thresholds and the classification. `runPipeline` goes on from it; the
+ * uncertainty sweep stops here for each realisation (so a realisation is classified exactly as a run is).
+ */
+export function runDomainStage(inputs: PipelineInputs, options: PipelineOptions = {}): DomainStage {
   const progress = options.onProgress ?? (() => {});
   const params = resolveParams(options.params ?? {});
   const warnings: string[] = [];
@@ -205,7 +212,8 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
 
   progress('oceanward direction', 0.45);
   let oceanward: Oceanward;
-  if (params.oceanwardAzimuth !== null) oceanward = oceanwardFromAzimuth(params.oceanwardAzimuth);
+  if (options.oceanward) oceanward = options.oceanward;
+  else if (params.oceanwardAzimuth !== null) oceanward = oceanwardFromAzimuth(params.oceanwardAzimuth);
   else {
     const fit = oceanwardFromDepth(geometry, seabed ? gridOf(derived.grids, 'water-loaded-basement') : basementValues);
     if (fit) oceanward = fit;
@@ -218,7 +226,7 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   // Vector evidence into the analysis CRS.
   const toMap = (v: VectorInput, ring: [number, number][]): Ring => {
     const t = transformer(v.set.crs, geometry.crs);
-    const dense = v.set.crs === WGS84 ? densify(ring, 0.01) : ring;
+    const dense = v.set.crs.id === WGS84.id ? densify(ring, 0.01) : ring;
     return dense.map((p) => t.forward(p) as [number, number]);
   };
   const check = (v: VectorInput | null | undefined, role: Parameters<typeof expectKinds>[1]) => {
@@ -324,6 +332,49 @@ export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {
   const oceanLevel = calOcean?.field ?? params.oceanicThreshold;
   const classified = classifyAt(taperLevel, oceanLevel);
   warnings.push(...classified.warnings);
+  return {
+    params, geometry, warnings, derived, basementValues, moho, seabed, oceanward, licenceIn, licence, allPicks, picks, lines, isoIn, isochrons,
+    tc, valid, areaRows, calTaper, calOcean, placedBy, taperLevel, oceanLevel, classified, classifyAt, rasterOf,
+  };
+}
+
+/** What the domain stage hands on: the run so far, in the analysis CRS. */
+export interface DomainStage {
+  readonly params: Params;
+  readonly geometry: GridGeometry;
+  readonly warnings: string[];
+  readonly derived: Derived;
+  readonly basementValues: Float32Array;
+  readonly moho: Float32Array;
+  readonly seabed: Float32Array | null;
+  readonly oceanward: Oceanward;
+  readonly licenceIn: VectorInput | null;
+  readonly licence: Ring[] | null;
+  readonly allPicks: Pick[];
+  readonly picks: Pick[];
+  readonly lines: { name: string; coords: Ring[] }[];
+  readonly isoIn: VectorInput | null;
+  readonly isochrons: Isochron[];
+  /** The crustal thickness the domains and lines are traced on (smoothed when smoothCells > 0). */
+  readonly tc: Float32Array;
+  readonly valid: Uint8Array;
+  readonly areaRows: CellAreaRows;
+  readonly calTaper: Calibration | null;
+  readonly calOcean: Calibration | null;
+  readonly placedBy: { taper: string; oceanic: string };
+  readonly taperLevel: Float32Array | number;
+  readonly oceanLevel: Float32Array | number;
+  readonly classified: Classified;
+  readonly classifyAt: (taperLevel: Float32Array | number, oceanLevel: Float32Array | number) => Classified;
+  readonly rasterOf: <T extends Float32Array | Uint8Array>(key: string, source: VectorInput, make: () => T) => T;
+}
+
+export function runPipeline(inputs: PipelineInputs, options: PipelineOptions = {}): PipelineResult {
+  const progress = options.onProgress ?? (() => {});
+  const st = runDomainStage(inputs, options);
+  const { params, geometry, warnings, derived, basementValues, moho, seabed, oceanward, licenceIn, licence, allPicks, picks, lines, isoIn, isochrons } = st;
+  const { tc, areaRows, calTaper, calOcean, placedBy, taperLevel, oceanLevel, classified, classifyAt, rasterOf } = st;
+  const rowAreas = new Float64Array(geometry.nx);
 
   // The grids as shown and exported: each model only where it applies.
   const isoAge = isochrons.length && seabed ? rasterOf('isochron-age', isoIn!, () => nearestIsochronAge(geometry, isochrons)) : null;

@@ -14,10 +14,10 @@
 
 import { colToX, rowToY, xToCol, yToRow, type GridGeometry } from '../grid/geometry.js';
 import { lineCount, lineRange, ringArea, traceLevel, type Lines } from '../contour/marching-squares.js';
-import { DOMAIN_MOHO_GAP, FLAG_UNRESOLVED, isContinentalDomain } from '../domains/classify.js';
+import { DOMAIN_MOHO_GAP, FLAG_UNRESOLVED } from '../domains/classify.js';
 import type { Oceanward } from '../domains/direction.js';
 import type { Params } from '../params.js';
-import { sideField, sideOf } from './fields.js';
+import { CONTINENTAL_SIDE, namedLineField, OCEANIC_SIDE, sideField, type LineLevels } from './fields.js';
 import { offsetAt, onlapLines, onlapOffset, strikeOf, type OnlapPoint } from './onlap.js';
 import { simplifyShared } from './simplify.js';
 import { clipLineToPolygon, clipPolygons, distanceToControl, insideRings, signedArea, type Ring } from './planar.js';
@@ -101,8 +101,6 @@ const MAX_PIECE = 10_000;
 /** Metres: "far from either side" in the COT field, beyond any thickness difference. */
 const FAR = 1e7;
 
-const CONTINENTAL_SIDE = sideOf(isContinentalDomain);
-const OCEANIC_SIDE = sideOf((c) => c === 5);
 
 /** Cells that are, or have an 8-neighbour that is, on the side (domain codes, see sideOf). */
 function dilate(domains: Uint8Array, side: Uint8Array, nx: number, ny: number): Uint8Array {
@@ -129,18 +127,18 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   // oceanic limits are not drawn (NaN: lines stop there, as at a Moho gap).
   const flags = inp.flags;
   const tcLimits = flags ? tc.map((v, k) => (flags[k] & FLAG_UNRESOLVED ? NaN : v)) : tc;
-  const toMap = (l: Lines): Ring[] => linesToMap(g, l);
   const grid = (v: Float32Array) => ({ values: v, nx, ny });
   // one field at a time where it can be: necking and coupling share a buffer (traced, then reused
   // for the COT field); the taper and oceanic fields are kept for the COT field
   const spare = new Float32Array(nx * ny);
-  const necking = toMap(traceLevel(grid(sideField(tc, dom, CONTINENTAL_SIDE, p.neckingFraction * p.tc0, false, spare)), 0));
-  const coupling = toMap(traceLevel(grid(sideField(tc, dom, CONTINENTAL_SIDE, p.couplingThickness, false, spare)), 0));
-  const gTaper = sideField(tcLimits, dom, CONTINENTAL_SIDE, inp.taperLevel, true);
-  const gOcean = sideField(tcLimits, dom, OCEANIC_SIDE, inp.oceanLevel, true);
+  const levels = lineLevels(p, inp.taperLevel, inp.oceanLevel);
+  const necking = traceZero(g, namedLineField('necking', tc, tcLimits, dom, levels, spare));
+  const coupling = traceZero(g, namedLineField('coupling', tc, tcLimits, dom, levels, spare));
+  const gTaper = namedLineField('taper', tc, tcLimits, dom, levels);
+  const gOcean = namedLineField('oceanic', tc, tcLimits, dom, levels);
   const lines: Record<'taper' | 'oceanic' | 'necking' | 'coupling', Ring[]> = {
-    taper: toMap(traceLevel(grid(gTaper), 0)),
-    oceanic: toMap(traceLevel(grid(gOcean), 0)),
+    taper: traceZero(g, gTaper),
+    oceanic: traceZero(g, gOcean),
     necking,
     coupling,
   };
@@ -338,6 +336,16 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
 }
 
 const km = (m: number) => (m / 1000).toFixed(1);
+
+/** The levels of the four thickness lines of a run (the limits' may be fields calibrated to picks). */
+export function lineLevels(p: Params, taperLevel: Float32Array | number, oceanLevel: Float32Array | number): LineLevels {
+  return { taper: taperLevel, oceanic: oceanLevel, necking: p.neckingFraction * p.tc0, coupling: p.couplingThickness };
+}
+
+/** The zero line of a field on the grid, in map coordinates: how every named line is traced. */
+export function traceZero(g: GridGeometry, field: Float32Array): Ring[] {
+  return linesToMap(g, traceLevel({ values: field, nx: g.nx, ny: g.ny }, 0));
+}
 
 /** The zero line of a side field (fields.ts) in map coordinates: one boundary line alone. */
 export function traceSideLine(g: GridGeometry, tc: Float32Array, domains: Uint8Array, side: 'continental' | 'oceanic', level: Float32Array | number): Ring[] {

@@ -19,6 +19,12 @@ import { DEFAULT_PLAN, PLAN_SPECS, resolvePlan } from '../survey/params.js';
 import { planFromResult } from '../survey/run.js';
 import { surveyCsv, surveyGeoJson } from '../export/survey.js';
 import { DEFAULT_WRITTEN, DERIVED, parseGridList, type DerivedName } from '../derive/grids.js';
+import { DEFAULT_SPEC, resolveSpec, SPEC_DOCS, type UncertaintySpec } from '../uncertainty/spec.js';
+import { summariseParts } from '../uncertainty/run.js';
+import { uncertaintyFiles, uncertaintySummary } from '../export/uncertainty.js';
+import { readSweepPart, writeSweepPart } from '../io/sweep-part.js';
+import { runSweepThreads } from './sweep-pool.js';
+import { mergeParts } from '../uncertainty/summary.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const pkg = JSON.parse(readFileSync(join(here, '../../package.json'), 'utf8')) as { version: string };
@@ -36,6 +42,11 @@ const optInLines = DERIVED.filter((d) => 'optIn' in d)
 const planLines = PLAN_SPECS.map((s) => {
   const d = DEFAULT_PLAN[s.key];
   return `    ${s.key.padEnd(22)} ${s.doc} (default ${d === null ? 'none' : `${d}${s.unit ? ' ' + s.unit : ''}`})`;
+}).join('\n');
+
+const specLines = SPEC_DOCS.map((d) => {
+  const v = d.key.split('.').reduce<unknown>((o, k) => (o as Record<string, unknown>)[k], DEFAULT_SPEC);
+  return `    ${d.key.padEnd(24)} ${d.doc} (default ${v}${d.unit ? ' ' + d.unit : ''})`;
 }).join('\n');
 
 export const HELP = `taperline ${pkg.version} — map-view synthesis of rifted-margin depth grids
@@ -76,6 +87,27 @@ boundaries from depth grids (GeoTIFF or XYZ text; metres or km, depth or elevati
                        (only the grids written are kept in memory); each is written on request:
 ${optInLines}
                        demo writes all of them unless told otherwise
+
+Uncertainty (synth): the same run over N seeded realisations that vary the parameters and the
+top-basement and Moho surfaces (errors small at seismic lines and picks, growing away from them):
+  --realisations N     run N realisations (1–10000) and write DIR/uncertainty/ (below)
+  --seed S             seed of the random numbers (default 1); same seed, same output bytes
+  --uncertainty F.json what varies and by how much (keys below; every key optional)
+  --threads N          worker threads for the realisations (default one per core, at most 4)
+  --realisation-range K:M   run realisations K…M−1 only and write DIR/sweep-part-K-M.bin (nothing
+                       else), so a large sweep can be spread over jobs of a batch scheduler
+  --merge-parts F1,F2,…     build the uncertainty outputs from part files instead of running them
+                       (they must cover 0…N−1 of the same inputs, parameters, spec and seed); the
+                       result is byte for byte that of one whole run
+Pq is what at least q % of the realisations reach: the P90 crustal taper limit is where continental
+crust reaches at least this far oceanward in 90 % of realisations, the P90 oceanic limit where oceanic
+crust reaches at least this far landward; P90 areas and widths are at least that in 90 %. Writes
+DIR/uncertainty/lines.geojson (P90, P50, P10 of the taper, oceanic, necking and coupling lines;
+property p), probability-<code>-<domain>.tif (per-cell probability of each domain),
+positional-uncertainty.tif (P90–P10 envelope width of the two limits, km), zone-width.csv (zone
+width along strike) and an "uncertainty" block in summary.json (licence areas P90/P50/P10).
+Uncertainty keys (standard deviations; 0 holds a parameter fixed):
+${specLines}
 
 plan: propose 2D seismic lines across the continent–ocean transition (a planning aid: marine
 surveys need permits, environmental mitigation and qualified operators). Same inputs as synth, plus
@@ -145,9 +177,11 @@ function parseArgs(argv: string[]): { command: string; flags: Map<string, string
 }
 
 const GRID_ROLES = ['seabed', 'top-basement', 'moho'] as const;
+const SWEEP_FLAGS = ['realisations', 'seed', 'uncertainty', 'realisation-range', 'merge-parts', 'threads'];
 const PLAN_FLAGS = ['existing', 'spacing', 'overhang-landward', 'overhang-oceanward'];
 const KNOWN = new Set([
   'top-basement', 'moho', 'seabed', 'licence', 'lines', 'picks', 'isochrons', 'crust', 'params', 'out', 'exclude-pick', 'read-budget-mb', 'grids',
+  ...SWEEP_FLAGS,
   ...GRID_ROLES.flatMap((r) => [`${r}-units`, `${r}-sign`, `${r}-nodata`, `${r}-crs`, `${r}-depth`]),
 ]);
 
@@ -262,6 +296,8 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
     throw err;
   }
   const r = result;
+  const sweep = mode === 'synth' ? await sweepOf(flags, inputs, { params: pipelineParams, excludePicks }, out) : null;
+  if (sweep === 'part-written') return;
   let planWarnings: string[] = [];
   const count = await writeAtomically(out, async (put) => {
     if (mode === 'plan') {
@@ -278,13 +314,14 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
       planWarnings = sp.plan.warnings;
       return;
     }
-    const run = { version: pkg.version, time: new Date().toISOString(), tool: 'cli' as const, grids };
+    const run = { version: pkg.version, time: runTime(), tool: 'cli' as const, grids };
     // GeoTIFFs on worker threads (with Node's zlib), each written to disk as it is done, while this
     // thread builds the vector outputs
     const { jobs, side } = gridJobs(r, run);
     const tiffs = writeGeoTiffs(r.geometry, jobs, undefined, put);
     tiffs.catch(() => {}); // awaited below; an early failure must not go unhandled meanwhile
-    for (const [rel, bytes] of Object.entries({ ...outputFiles(r, run, {}), ...side })) await put(rel, bytes);
+    const extra = sweep ? uncertaintySummary(r, sweep) : undefined;
+    for (const [rel, bytes] of Object.entries({ ...outputFiles(r, run, {}, extra), ...side, ...(sweep ? uncertaintyFiles(r, sweep, run) : {}) })) await put(rel, bytes);
     const { default: initSqlJs } = await import('sql.js');
     const gpkg = geoPackage(await initSqlJs(), r, run.time);
     await put('boundaries.gpkg', gpkg.bytes);
@@ -294,6 +331,93 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
   for (const w of planWarnings) process.stderr.write(`warning: ${w}\n`);
   for (const w of result.warnings) process.stderr.write(`warning: ${w}\n`);
   process.stdout.write(`wrote ${count} files to ${out}\n`);
+}
+
+/** The run's time: now, or SOURCE_DATE_EPOCH (seconds) when set, for reproducible outputs. */
+function runTime(): string {
+  const sde = process.env.SOURCE_DATE_EPOCH;
+  if (sde !== undefined && /^\d+$/.test(sde)) return new Date(Number(sde) * 1000).toISOString();
+  return new Date().toISOString();
+}
+
+/**
+ * The sweep a synth run asks for: null without --realisations; the envelope from realisations run
+ * here (on worker threads) or merged from part files; or, with --realisation-range, the part written
+ * to the output folder and nothing else ('part-written').
+ */
+async function sweepOf(flags: Map<string, string | true>, inputs: PipelineInputs, options: { params: Record<string, unknown>; excludePicks: string[] }, out: string) {
+  const has = SWEEP_FLAGS.filter((f) => flags.has(f));
+  if (!flags.has('realisations')) {
+    if (has.length) throw new UsageError(`--${has[0]} needs --realisations N`);
+    return null;
+  }
+  const whole = (key: string, min: number, max: number) => {
+    const v = str(flags, key);
+    if (v === undefined) return undefined;
+    if (!/^\d+$/.test(v) || Number(v) < min || Number(v) > max) throw new UsageError(`--${key} must be a whole number from ${min} to ${max}`);
+    return Number(v);
+  };
+  let raw: unknown = {};
+  const specPath = str(flags, 'uncertainty');
+  if (specPath) {
+    try {
+      raw = JSON.parse(readFileSync(specPath, 'utf8'));
+    } catch (err) {
+      throw new InputError(specPath, (err as NodeJS.ErrnoException).code ? `cannot be read (${(err as NodeJS.ErrnoException).code})` : `is not valid JSON (${(err as Error).message})`);
+    }
+  }
+  let spec: UncertaintySpec;
+  try {
+    spec = resolveSpec(raw, { realisations: whole('realisations', 1, 10_000), seed: whole('seed', 0, 2 ** 32 - 1) });
+  } catch (err) {
+    if (err instanceof ParamError) throw new InputError(specPath ?? '--realisations', err.message);
+    throw err;
+  }
+  const threads = whole('threads', 1, 64);
+  const rangeText = str(flags, 'realisation-range');
+  const mergeText = str(flags, 'merge-parts');
+  if (rangeText && mergeText) throw new UsageError('--realisation-range and --merge-parts do not go together: run the parts, then merge them');
+  const started = Date.now();
+  if (rangeText) {
+    const m = /^(\d+):(\d+)$/.exec(rangeText);
+    if (!m || Number(m[1]) >= Number(m[2]) || Number(m[2]) > spec.realisations) throw new UsageError(`--realisation-range must be K:M with 0 ≤ K < M ≤ ${spec.realisations} (realisations K…M−1)`);
+    const parts = await runSweepThreads(inputs, options, spec, [Number(m[1]), Number(m[2])], threads);
+    const file = `sweep-part-${m[1]}-${m[2]}.bin`;
+    const part = writeSweepPart(mergeRange(parts));
+    makeDir(out);
+    writeFileSync(join(out, file), part);
+    process.stdout.write(`wrote realisations ${m[1]}…${Number(m[2]) - 1} to ${join(out, file)} (${((Date.now() - started) / 1000).toFixed(1)} s)\n`);
+    return 'part-written' as const;
+  }
+  const parts = mergeText
+    ? mergeText.split(',').map((f) => {
+        let bytes: Uint8Array;
+        try {
+          bytes = readFileSync(f.trim());
+        } catch (err) {
+          throw new InputError(f.trim(), `cannot be read (${(err as NodeJS.ErrnoException).code})`);
+        }
+        return readSweepPart(bytes, f.trim());
+      })
+    : await runSweepThreads(inputs, options, spec, [0, spec.realisations], threads);
+  let result;
+  try {
+    result = summariseParts(inputs, options, spec, parts).result;
+  } catch (err) {
+    throw new InputError(mergeText ?? '--realisations', (err as Error).message);
+  }
+  process.stderr.write(`uncertainty: ${spec.realisations} realisations ${mergeText ? 'merged' : 'run'} in ${((Date.now() - started) / 1000).toFixed(1)} s\n`);
+  return result;
+}
+
+/** Contiguous parts of one range as one part (the threads of a --realisation-range run). */
+function mergeRange(parts: import('../uncertainty/sweep.js').SweepPart[]) {
+  if (parts.length === 1) return parts[0];
+  const sorted = [...parts].sort((a, b) => a.start - b.start);
+  // mergeParts checks a whole 0…N − 1; shift to check this range alone
+  const shifted = sorted.map((p) => ({ ...p, start: p.start - sorted[0].start, end: p.end - sorted[0].start }));
+  const m = mergeParts(shifted, { ...DEFAULT_SPEC, realisations: sorted[sorted.length - 1].end - sorted[0].start });
+  return { ...m, start: sorted[0].start, end: sorted[sorted.length - 1].end };
 }
 
 const MANIFEST = '.taperline-outputs';

@@ -91,6 +91,9 @@ export interface Classified {
   /** The smallest block mapped (km²): max(minBlockArea, minBlockCells × cell area). */
   readonly minBlockKm2: number;
   readonly counts: Record<string, number>;
+  /** Cells where oceanic-range crust runs unbroken to the landward edge (the sides join), and cells left unresolved along the oceanward direction. */
+  readonly joined: number;
+  readonly unresolved: number;
   readonly warnings: string[];
 }
 
@@ -354,5 +357,5 @@ export function classify(inp: ClassifyInput): Classified {
   for (let d = 0; d < tally.length; d++) if (tally[d]) counts[d] = tally[d];
   if (!contComp.some((v) => v === 1)) warnings.push('no continental crust reaches the landward edge: no continental side found (check the oceanward direction)');
   if (!oceanComp.some((v) => v === 1)) warnings.push('no crust above the oceanic-limit threshold reaches the oceanward edge: no oceanic side found');
-  return { domains, flags, blocks, minBlockKm2, counts, warnings };
+  return { domains, flags, blocks, minBlockKm2, counts, joined: merged, unresolved, warnings };
 }

@@ -121,7 +121,7 @@ function categories(names: readonly string[]): Uint8Array {
   );
 }
 
-function tiffTime(iso: string): string | undefined {
+export function tiffTime(iso: string): string | undefined {
   const m = /^(\d{4})-(\d\d)-(\d\d)T(\d\d):(\d\d):(\d\d)/.exec(iso);
   return m ? `${m[1]}:${m[2]}:${m[3]} ${m[4]}:${m[5]}:${m[6]}` : undefined;
 }
@@ -263,7 +263,8 @@ function classFlagCounts(flags: Uint8Array): Record<string, number> {
  * Every output file. `grids`: the GeoTIFFs and their side files when the shell writes them itself
  * (the CLI, on worker threads, from gridJobs); written here otherwise.
  */
-export function outputFiles(r: PipelineResult, run: RunInfo, grids?: Record<string, Uint8Array>): Record<string, Uint8Array> {
+/** The run's files; `uncertainty` (a sweep's summary block) is added to summary.json when given. */
+export function outputFiles(r: PipelineResult, run: RunInfo, grids?: Record<string, Uint8Array>, uncertainty?: Record<string, unknown>): Record<string, Uint8Array> {
   const bfc = boundariesGeoJson(r);
   const domains = domainsGeoJson(r); // inside the licence when one is given (clipped once, used twice)
   const made = provenance(r, run);
@@ -278,6 +279,6 @@ export function outputFiles(r: PipelineResult, run: RunInfo, grids?: Record<stri
     files['boundaries-whole-grid.geojson'] = json({ ...boundariesGeoJson(r, 'regional'), generated_by: made });
     files['boundary-lines-whole-grid.geojson'] = json({ ...boundaryLinesGeoJson(r, 'regional'), generated_by: made });
   }
-  files['summary.json'] = json(summary(r, run, bfc, r.evidence.licence ? domains : undefined));
+  files['summary.json'] = json({ ...summary(r, run, bfc, r.evidence.licence ? domains : undefined), ...(uncertainty ? { uncertainty } : {}) });
   return files;
 }
