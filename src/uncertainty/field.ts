@@ -5,10 +5,10 @@
  * autocorrelation). The kernel is separable, three box filters of w cells along each axis (a
  * quadratic B-spline); its autocorrelation is close to a Gaussian covariance
  * C(h) ≈ exp(−h²/ℓ²), and w is chosen from the user's correlation length ℓ (the lag at which the
- * correlation falls to 1/e) as the odd integer nearest √((ℓ/Δ)² + 1) for cell size Δ (the box-filter
+ * correlation falls to 1/e) as the integer nearest √((ℓ/Δ)² + 1) for cell size Δ (the box-filter
  * variance (w² − 1)/12, three times, is ℓ²/4 per axis). `correlationAt` gives the exact correlation of
  * the discrete kernel, for tests and the summary. The noise is drawn on a grid padded by the kernel's
- * half-width so every cell of the result has full support (no edge effects), and the field is divided
+ * length so every cell of the result has full support (no edge effects), and the field is divided
  * by the kernel's root sum of squares, so its variance is exactly 1 in distribution.
  */
 
@@ -22,11 +22,9 @@ export interface FieldShape {
   readonly dy: number;
 }
 
-/** Box width (odd, ≥ 1 cells) for a correlation length ℓ on cells of size `cell`. */
+/** Box width (≥ 1 cells) for a correlation length ℓ on cells of size `cell` (an even width shifts the field half a cell: no matter for a stationary field). */
 export function boxWidth(length: number, cell: number): number {
-  const w = Math.sqrt((length / cell) ** 2 + 1);
-  const odd = 2 * Math.round((w - 1) / 2) + 1;
-  return Math.max(1, odd);
+  return Math.max(1, Math.round(Math.sqrt((length / cell) ** 2 + 1)));
 }
 
 /** The 1D kernel: three boxes of w ones convolved (length 3w − 2). */
@@ -57,10 +55,8 @@ export function fieldGenerator(shape: FieldShape, length: number): { readonly wx
   const { nx, ny } = shape;
   const wx = boxWidth(length, Math.abs(shape.dx));
   const wy = boxWidth(length, Math.abs(shape.dy));
-  const px = (3 * (wx - 1)) / 2;
-  const py = (3 * (wy - 1)) / 2;
-  const NX = nx + 2 * px;
-  const NY = ny + 2 * py;
+  const NX = nx + 3 * (wx - 1);
+  const NY = ny + 3 * (wy - 1);
   const sumSq = (w: number) => kernel1d(w).reduce((s, v) => s + v * v, 0);
   const scale = 1 / Math.sqrt(sumSq(wx) * sumSq(wy));
   // noise, then rows filtered to nx wide, then columns filtered to ny tall
