@@ -296,14 +296,14 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
     throw err;
   }
   const r = result;
-  const sweep = mode === 'synth' ? await sweepOf(flags, inputs, { params: pipelineParams, excludePicks }, out) : null;
+  const sweep = await sweepOf(flags, inputs, { params: pipelineParams, excludePicks }, out);
   if (sweep === 'part-written') return;
   let planWarnings: string[] = [];
   const count = await writeAtomically(out, async (put) => {
     if (mode === 'plan') {
       let sp;
       try {
-        sp = planFromResult(r, planParams);
+        sp = planFromResult(r, planParams, sweep);
       } catch (err) {
         if (err instanceof Error && /^plan parameter/.test(err.message)) throw new InputError(paramsPath ?? 'parameters', err.message);
         throw err;

@@ -21,6 +21,7 @@ export function surveyGeoJson(sp: SurveyPlan, crs: Crs): Record<string, unknown>
         length_km: r3(l.lengthKm),
         cumulative_km: r3(l.cumulativeKm),
         zone_width_km: l.zoneWidthKm === null ? null : r3(l.zoneWidthKm),
+        envelope_width_km: l.envelopeWidthKm === null ? null : r3(l.envelopeWidthKm),
         control_distance_km: l.controlDistanceKm === null ? null : r3(l.controlDistanceKm),
         score: l.score === null ? null : r3(l.score),
         note: l.note ?? null,
@@ -43,6 +44,9 @@ export function surveyGeoJson(sp: SurveyPlan, crs: Crs): Record<string, unknown>
       total_days: r3(sp.programme.totalDays),
       cost: sp.programme.cost,
       parameters: sp.params,
+      ranked_by: sp.plan.lines.some((l) => l.envelopeWidthKm !== null)
+        ? 'P90–P10 envelope width of the taper and oceanic limits crossed (the uncertainty a line would remove) × distance from control ÷ length; overhangs from the P90 limits'
+        : 'zone width crossed × distance from control ÷ length; overhangs from the taper and oceanic limits',
       dropped: sp.plan.dropped,
       gaps: sp.plan.gaps.map((g) => {
         const [lon, lat] = transformer(crs, WGS84).forward(g.at);

@@ -16,7 +16,9 @@
  *    midline and the first oceanic crust, through the tie point of every kept dip line, 2 km beyond
  *    the end ones (a choice).
  * 6. Ranking: dip lines by the transition they constrain per line-km (zone width crossed × distance
- *    from existing control ÷ length). Each dip line is preceded in the list by the tie pieces that join
+ *    from existing control ÷ length); with an uncertainty envelope, by the P90–P10 envelope width
+ *    crossed instead (the uncertainty the line would remove), overhangs then measured from the P90
+ *    limits (the envelope's outer edges). Each dip line is preceded in the list by the tie pieces that join
  *    it to the dip lines ranked before it (or a 4 km stub across it), so a programme cut at any dip
  *    line's cumulative line-km keeps all its dip lines tied.
  * 7. Coverage along the midline: distance to the nearest existing line or pick; gaps where it exceeds
@@ -45,6 +47,13 @@ export interface PlanInput {
   readonly existing: { name: string; coords: Ring }[];
   readonly picks: [number, number][];
   readonly licence: Ring[] | null;
+  /**
+   * The P90/P10 envelope of the two limits from an uncertainty sweep (uncertainty/summary.ts): when
+   * given, dip lines run from the overhang landward of the P90 taper limit (the landward-most) to the
+   * overhang oceanward of the P90 oceanic limit (the oceanward-most), and are ranked by the envelope
+   * width they cross, the uncertainty a line would remove.
+   */
+  readonly envelope?: { readonly taper: { p90: Ring[]; p10: Ring[] }; readonly oceanic: { p90: Ring[]; p10: Ring[] } } | null;
 }
 
 export interface ProposedLine {
@@ -55,6 +64,8 @@ export interface ProposedLine {
   lengthKm: number;
   /** Dip lines: zone width crossed (km) and distance from existing control at the zone midpoint (km). */
   zoneWidthKm: number | null;
+  /** Dip lines with an envelope: P90–P10 width of the taper limit plus that of the oceanic limit, crossed (km). */
+  envelopeWidthKm: number | null;
   controlDistanceKm: number | null;
   score: number | null;
   rank: number;
@@ -195,8 +206,9 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
       const z = zoneCrossing(o, n, reach, inp.taper, inp.oceanic);
       if (!z) continue;
       const at = (t: number): P => [o[0] + n[0] * t, o[1] + n[1] * t];
-      let t0 = z.tTaper - p.overhangLandwardKm * 1000;
-      const t1 = z.tOcean + p.overhangOceanwardKm * 1000;
+      const env = inp.envelope ? envelopeCrossing(o, n, reach, z, inp.envelope) : null;
+      let t0 = (env ? Math.min(env.landward, z.tTaper) : z.tTaper) - p.overhangLandwardKm * 1000;
+      const t1 = (env ? Math.max(env.oceanward, z.tOcean) : z.tOcean) + p.overhangOceanwardKm * 1000;
       const tn = rayHits(o, n, reach, inp.necking).filter((t) => t < z.tTaper);
       const tcp = rayHits(o, n, reach, inp.coupling).filter((t) => t < z.tTaper);
       const tNeck = tn.length && tcp.length ? (tn[tn.length - 1] + tcp[tcp.length - 1]) / 2 : null;
@@ -211,7 +223,7 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
       dips.push({
         line: {
           id: '', kind: 'dip', segment: seg.index, coords: [at(t0), at(t1)], lengthKm: 0,
-          zoneWidthKm: (z.tOcean - z.tTaper) / 1000, controlDistanceKm: control(zoneMid[0], zoneMid[1]) / 1000, score: null, rank: 0, cumulativeKm: 0, note,
+          zoneWidthKm: (z.tOcean - z.tTaper) / 1000, envelopeWidthKm: env ? env.widthKm : inp.envelope ? 0 : null, controlDistanceKm: control(zoneMid[0], zoneMid[1]) / 1000, score: null, rank: 0, cumulativeKm: 0, note,
         },
         piece: seg.piece,
         zone: [at(z.tTaper), at(z.tOcean)],
@@ -247,8 +259,11 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
   const geodesicKm = (coords: Ring) => geodesicLength(resamplePath(coords, inp.crs.units === 'degree' ? 0.01 : 1000).flatMap((q) => toLL.forward(q))) / 1000;
   for (const { line: l } of kept) {
     l.lengthKm = geodesicKm(l.coords);
-    l.score = ((l.zoneWidthKm ?? 0) * Math.min(l.controlDistanceKm ?? 0, reach / 1000)) / l.lengthKm;
+    // with an envelope, the uncertainty crossed; else the zone width crossed
+    const crossed = inp.envelope ? (l.envelopeWidthKm ?? 0) : (l.zoneWidthKm ?? 0);
+    l.score = (crossed * Math.min(l.controlDistanceKm ?? 0, reach / 1000)) / l.lengthKm;
   }
+  if (inp.envelope) warnings.push('ranked by the P90–P10 envelope width of the taper and oceanic limits each dip line crosses (the uncertainty it would remove) × distance from control ÷ length; overhangs measured from the P90 limits (the envelope\'s outer edges), not from the single lines');
 
   // Dip lines of neighbouring segments must not cross inside the zone: where two do, the one that
   // constrains less (lower score) is dropped, and the list says so.
@@ -283,7 +298,7 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
         tieCount++;
         lines.push({
           id: `S${d.line.segment + 1}-${String(tieCount).padStart(2, '0')}`, kind: 'strike', segment: d.line.segment, coords, lengthKm: geodesicKm(coords),
-          zoneWidthKm: null, controlDistanceKm: null, score: null, rank: 0, cumulativeKm: 0,
+          zoneWidthKm: null, envelopeWidthKm: null, controlDistanceKm: null, score: null, rank: 0, cumulativeKm: 0,
           note: part.dips.length ? `tie ${t.note}` : `tie ${t.note} (joins the tie pieces either side of ${d.line.id})`, ties: part.dips.map((q) => q.line.id),
         });
       }
@@ -325,6 +340,27 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
   gaps.sort((a, b) => b.lengthKm - a.lengthKm);
   gaps.forEach((g, k) => (g.rank = k + 1));
   return { midline, segments, lines, dropped, coverage, gaps, warnings };
+}
+
+/**
+ * Where a dip ray meets the envelope: the first hit from land of the P90 taper limit (landward edge of
+ * its envelope) and of the P10 taper limit beyond it; the first hits of the P10 and P90 oceanic limits
+ * beyond the P90 taper limit. Widths are P10 − P90 for the taper limit and P90 − P10 for the oceanic
+ * limit, each 0 where a percentile line is not crossed.
+ */
+function envelopeCrossing(o: P, n: P, reach: number, z: { tTaper: number; tOcean: number }, e: NonNullable<PlanInput['envelope']>): { landward: number; oceanward: number; widthKm: number } {
+  const first = (lines: Ring[], after: number) => rayHits(o, n, reach, lines).find((t) => t >= after) ?? NaN;
+  const from = -reach;
+  const t90 = first(e.taper.p90, from);
+  const t10 = first(e.taper.p10, t90 === t90 ? t90 : from);
+  const o10 = first(e.oceanic.p10, t90 === t90 ? t90 : from);
+  const o90 = first(e.oceanic.p90, o10 === o10 ? o10 : z.tTaper);
+  const w = (a: number, b: number) => (a === a && b === b && b > a ? b - a : 0);
+  return {
+    landward: t90 === t90 ? t90 : z.tTaper,
+    oceanward: o90 === o90 ? o90 : z.tOcean,
+    widthKm: (w(t90, t10) + w(o10, o90)) / 1000,
+  };
 }
 
 function pathLength(r: Ring): number {

@@ -8,6 +8,13 @@ import { resolvePlan, type PlanParams } from './params.js';
 import { planSurvey, type Plan } from './plan.js';
 import { lineFigures, programmeFigures, type LineFigures, type ProgrammeFigures } from './programme.js';
 import { sampleSection, type Section, type SectionGrids } from './section.js';
+import type { UncertaintyResult } from '../uncertainty/summary.js';
+
+/** The P90 and P10 taper and oceanic lines of a sweep, as the planner takes them. */
+export function envelopeOf(u: UncertaintyResult): NonNullable<Parameters<typeof planSurvey>[0]['envelope']> {
+  const get = (line: 'taper' | 'oceanic', p: 90 | 10) => u.lines.find((l) => l.line === line && l.p === p)?.rings ?? [];
+  return { taper: { p90: get('taper', 90), p10: get('taper', 10) }, oceanic: { p90: get('oceanic', 90), p10: get('oceanic', 10) } };
+}
 
 export interface SurveyPlan {
   readonly params: PlanParams;
@@ -43,7 +50,8 @@ export function sectionAlong(r: PipelineResult, path: Ring): Section {
   return sampleSection(sectionGrids(r), path, sectionLines(r));
 }
 
-export function planFromResult(r: PipelineResult, user: Partial<Record<string, unknown>> = {}): SurveyPlan {
+/** Proposals for a run; with a sweep's result, ranked by the envelope it crosses (plan.ts). */
+export function planFromResult(r: PipelineResult, user: Partial<Record<string, unknown>> = {}, uncertainty?: UncertaintyResult | null): SurveyPlan {
   const params = resolvePlan(user);
   const g = r.geometry;
   const plan = planSurvey(
@@ -59,6 +67,7 @@ export function planFromResult(r: PipelineResult, user: Partial<Record<string, u
       existing: r.evidence.lines.flatMap((l) => l.coords.map((c) => ({ name: l.name, coords: c }))),
       picks: r.evidence.picks.map((p) => [p.x, p.y] as [number, number]),
       licence: r.evidence.licence,
+      envelope: uncertainty ? envelopeOf(uncertainty) : null,
     },
     params,
   );

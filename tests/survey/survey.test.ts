@@ -279,3 +279,47 @@ describe('planning on the invented demo', async () => {
     }
   });
 });
+
+describe('proposed lines with an uncertainty envelope', () => {
+  // a straight zone: taper limit at x = 490 km, oceanic limit at x = 510 km; the envelope is ±2 km
+  // around the taper limit in the south (y < 5 100 km) and ±8 km in the north, ±3 km around the
+  // oceanic limit everywhere
+  const straight = (x: (y: number) => number): P[][] => {
+    const l: P[] = [];
+    for (let y = 4_900_000; y <= 5_300_000; y += 1000) l.push([x(y), y]);
+    return [l];
+  };
+  const half = (y: number) => (y < 5_100_000 ? 2000 : 8000);
+  const inp: PlanInput = {
+    ...zone(0),
+    // the necking-zone tie point (between these two, less 2 km) lies oceanward of every overhang end
+    necking: straight(() => 484_000),
+    coupling: straight(() => 486_000),
+    envelope: {
+      taper: { p90: straight((y) => 490_000 - half(y)), p10: straight((y) => 490_000 + half(y)) },
+      oceanic: { p10: straight(() => 507_000), p90: straight(() => 513_000) },
+    },
+  };
+  const params = resolvePlan({ spacingKm: 20, overhangLandwardKm: 10, overhangOceanwardKm: 5 });
+  const plan = planSurvey(inp, params);
+  const dips = plan.lines.filter((l) => l.kind === 'dip');
+
+  it('each dip line crosses the envelope width of both limits (P90–P10) and reaches the overhangs beyond the P90 limits', () => {
+    expect(dips.length).toBeGreaterThan(10);
+    for (const d of dips) {
+      const y = (d.coords[0][1] + d.coords[1][1]) / 2;
+      // 2 × half-width of the taper envelope + 6 km of the oceanic one
+      expect(d.envelopeWidthKm).toBeCloseTo((2 * half(y) + 6000) / 1000, 6);
+      const xs = d.coords.map((c) => c[0]).sort((a, b) => a - b);
+      expect(xs[0]).toBeCloseTo(490_000 - half(y) - 10_000, 3);
+      expect(xs[1]).toBeCloseTo(513_000 + 5000, 3);
+    }
+  });
+
+  it('ranks the lines crossing the wider envelope first and says that it does', () => {
+    const first = dips.slice(0, 5);
+    for (const d of first) expect((d.coords[0][1] + d.coords[1][1]) / 2).toBeGreaterThanOrEqual(5_100_000);
+    expect(plan.warnings.join(' ')).toMatch(/ranked by the P90–P10 envelope width/);
+    expect(planSurvey(zone(0), params).lines.every((l) => l.envelopeWidthKm === null)).toBe(true);
+  });
+});
