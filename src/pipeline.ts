@@ -68,6 +68,8 @@ export interface PipelineOptions {
   readonly keepGrids?: ReadonlySet<DerivedName>;
   /** The oceanward direction to use instead of fitting it (the uncertainty sweep holds it fixed). */
   readonly oceanward?: Oceanward;
+  /** Derive only what the domains read (crustal and sediment thickness): the sweep's realisations, with `oceanward` given. */
+  readonly thicknessOnly?: boolean;
 }
 
 /** Parameters that only affect domains and lines: changing them does not recompute the derived grids. */
@@ -188,7 +190,8 @@ export function runDomainStage(inputs: PipelineInputs, options: PipelineOptions 
 
   progress('derived grids', 0.15);
   if (options.keepGrids && options.cache) throw new Error('runPipeline: keepGrids is for one-shot runs, not with a cache');
-  const derived = reuse ? reuse.derived : derive({ seabed, basement: basementValues, moho }, params, options.keepGrids);
+  if (options.thicknessOnly && !options.oceanward) throw new Error('runDomainStage: thicknessOnly needs the oceanward direction given');
+  const derived = reuse ? reuse.derived : derive({ seabed, basement: basementValues, moho }, params, options.keepGrids, options.thicknessOnly);
   if (options.cache && !reuse) {
     options.cache.entry = { basement: basementValues, moho: inputs.moho, seabed: inputs.seabed ?? null, key, derived, mohoA: moho, seabedA: seabed, warnings: [...warnings] };
   }

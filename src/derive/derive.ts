@@ -42,6 +42,9 @@ export interface DeriveFlags {
  * the age range for the oceanic lines): always computed, whatever the caller asked for (a lean
  * pipeline run drops the sediment grid once its data mask is made, unless asked for).
  */
+/** What a thickness-only derive (the uncertainty sweep's realisations: domains need no more) keeps. */
+export const THICKNESS_ONLY: ReadonlySet<DerivedName> = new Set<DerivedName>(['crustal-thickness', 'sediment-thickness']);
+
 export const NEEDED: ReadonlySet<DerivedName> = new Set<DerivedName>(['crustal-thickness', 'sediment-thickness', 'water-loaded-basement', 'beta-crust', 'beta-subsidence', 'oceanic-age-min', 'oceanic-age-max']);
 
 export interface Derived<G = Partial<Record<DerivedName, Float32Array>>> {
@@ -82,17 +85,22 @@ export function gridOf(grids: Partial<Record<DerivedName, Float32Array>>, name: 
  * `keep`: the grids to keep (default: all). The others are still computed cell by cell (one loop
  * for all) but into one shared scratch grid, and left out of the result, so a
  * batch run that writes only some grids holds only those (plus NEEDED) in memory.
+ * `thicknessOnly`: crustal and sediment thickness alone (and the flags), the rest not computed —
+ * what the domain rules read, for the uncertainty sweep's realisations.
  */
 export function derive(input: DeriveInput, p: Params): Derived<Record<DerivedName, Float32Array>>;
-export function derive(input: DeriveInput, p: Params, keep: ReadonlySet<DerivedName> | undefined): Derived;
-export function derive(input: DeriveInput, p: Params, keep?: ReadonlySet<DerivedName>): Derived {
+export function derive(input: DeriveInput, p: Params, keep: ReadonlySet<DerivedName> | undefined, thicknessOnly?: boolean): Derived;
+export function derive(input: DeriveInput, p: Params, keep?: ReadonlySet<DerivedName>, thicknessOnly = false): Derived {
   const n = input.basement.length;
   if (input.moho.length !== n || (input.seabed && input.seabed.length !== n)) {
     throw new Error('derive: seabed, basement and Moho must share one analysis grid');
   }
   let scratch: Float32Array | null = null;
   const all = Object.fromEntries(
-    DERIVED.map((d) => [d.name, !keep || keep.has(d.name) || NEEDED.has(d.name) ? new Float32Array(n) : (scratch ??= new Float32Array(n))]),
+    DERIVED.map((d) => [
+      d.name,
+      thicknessOnly ? (THICKNESS_ONLY.has(d.name) ? new Float32Array(n) : (scratch ??= new Float32Array(n))) : !keep || keep.has(d.name) || NEEDED.has(d.name) ? new Float32Array(n) : (scratch ??= new Float32Array(n)),
+    ]),
   ) as Record<DerivedName, Float32Array>;
   const grids: Partial<Record<DerivedName, Float32Array>> = {};
   for (const d of DERIVED) if (all[d.name] !== scratch) grids[d.name] = all[d.name];
@@ -115,7 +123,7 @@ export function derive(input: DeriveInput, p: Params, keep?: ReadonlySet<Derived
   const compaction = p.sedimentMode === 'compaction';
   const mk = mckenzieOf(p);
   const haveAge = riftAge !== null;
-  const inverter = haveAge ? makeBetaInverter(riftAge, mk, p.thermalForm) : null;
+  const inverter = haveAge && !thicknessOnly ? makeBetaInverter(riftAge, mk, p.thermalForm) : null;
   if (inverter && !inverter.monotone) warnings.push('McKenzie subsidence is not monotone in β for these parameters: β from subsidence solved cell by cell');
   if (!haveAge) warnings.push('time since rifting not given: predicted depth, subsidence residual and β from subsidence are not computed');
   if (!input.seabed) warnings.push('no seabed grid: water depth, sediment, unloading, subsidence and age grids are not computed');
@@ -197,6 +205,7 @@ export function derive(input: DeriveInput, p: Params, keep?: ReadonlySet<Derived
     oBetaCrust[k] = beta;
     oGamma[k] = gamma;
     if (tc === tc) hist[Math.min(1000, Math.floor(tc / 100))]++;
+    if (thicknessOnly) continue;
 
     // Sediment unloading (Watts & Ryan 1976): Y = w + s·(ρm − ρ̄s)/(ρm − ρw).
     let Y = NaN;

@@ -64,21 +64,23 @@ export function fieldGenerator(shape: FieldShape, length: number): { readonly wx
   const rows = new Float64Array(nx * NY);
   const line = new Float64Array(Math.max(NX, NY));
   const tmp = new Float64Array(Math.max(NX, NY));
-  /** Three running box sums of width w over src[0..len): the result, len − 3(w − 1) long, in src. */
-  const box3 = (src: Float64Array, len: number, w: number): void => {
-    let n = len;
-    for (let pass = 0; pass < 3; pass++) {
-      const m = n - (w - 1);
-      let s = 0;
-      for (let a = 0; a < w; a++) s += src[a];
-      tmp[0] = s;
-      for (let a = 1; a < m; a++) {
-        s += src[a + w - 1] - src[a - 1];
-        tmp[a] = s;
-      }
-      for (let a = 0; a < m; a++) src[a] = tmp[a];
-      n = m;
+  /** Three running box sums of width w over src[0..len): the result, len − 3(w − 1) long (in tmp). */
+  const box = (src: Float64Array, dst: Float64Array, n: number, w: number): number => {
+    const m = n - (w - 1);
+    let s = 0;
+    for (let a = 0; a < w; a++) s += src[a];
+    dst[0] = s;
+    for (let a = 1; a < m; a++) {
+      s += src[a + w - 1] - src[a - 1];
+      dst[a] = s;
     }
+    return m;
+  };
+  // src → tmp → src → tmp: the result ends in tmp
+  const box3 = (src: Float64Array, len: number, w: number): Float64Array => {
+    box(tmp, src, box(src, tmp, len, w), w);
+    box(src, tmp, len - 2 * (w - 1), w);
+    return tmp;
   };
   return {
     wx,
@@ -87,13 +89,13 @@ export function fieldGenerator(shape: FieldShape, length: number): { readonly wx
       for (let k = 0; k < noise.length; k++) noise[k] = r.normal();
       for (let j = 0; j < NY; j++) {
         for (let i = 0; i < NX; i++) line[i] = noise[j * NX + i];
-        box3(line, NX, wx);
-        for (let i = 0; i < nx; i++) rows[j * nx + i] = line[i];
+        const res = box3(line, NX, wx);
+        for (let i = 0; i < nx; i++) rows[j * nx + i] = res[i];
       }
       for (let i = 0; i < nx; i++) {
         for (let j = 0; j < NY; j++) line[j] = rows[j * nx + i];
-        box3(line, NY, wy);
-        for (let j = 0; j < ny; j++) out[j * nx + i] = line[j] * scale;
+        const res = box3(line, NY, wy);
+        for (let j = 0; j < ny; j++) out[j * nx + i] = res[j] * scale;
       }
       return out;
     },

@@ -5,7 +5,7 @@
  *
  * Generator: xoshiro128** (Blackman & Vigna 2018, "Scrambled linear pseudorandom number generators"),
  * seeded through SplitMix32-style mixing of the key (Steele, Lea & Flood 2014, the 32-bit finaliser of
- * MurmurHash3). Normal deviates by the Box–Muller transform (Box & Muller 1958).
+ * MurmurHash3). Normal deviates by the polar form of the Box–Muller transform (Box & Muller 1958; Marsaglia & Bray 1964).
  */
 
 /** MurmurHash3's 32-bit finaliser: a bijective mix. */
@@ -64,12 +64,16 @@ export function rng(seed: number, index: number, stream: string): Rng {
         spare = null;
         return v;
       }
-      // u1 in (0, 1]: log never sees 0
-      const u1 = 1 - uniform();
-      const u2 = uniform();
-      const r = Math.sqrt(-2 * Math.log(u1));
-      spare = r * Math.sin(2 * Math.PI * u2);
-      return r * Math.cos(2 * Math.PI * u2);
+      // Marsaglia's polar form of Box–Muller (Marsaglia & Bray 1964): no trigonometry
+      let u: number, v: number, s: number;
+      do {
+        u = 2 * uniform() - 1;
+        v = 2 * uniform() - 1;
+        s = u * u + v * v;
+      } while (s >= 1 || s === 0);
+      const f = Math.sqrt((-2 * Math.log(s)) / s);
+      spare = v * f;
+      return u * f;
     },
   };
 }

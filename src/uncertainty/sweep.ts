@@ -133,6 +133,8 @@ export function runSweepPart(base: SweepBase, spec: UncertaintySpec, start: numb
   const gen = zeroSurfaces ? null : fieldGenerator({ nx: g.nx, ny: g.ny, dx: g.dx, dy: g.dy }, spec.correlationLength);
   const z1 = new Float32Array(n);
   const z2 = new Float32Array(n);
+  const bBuf = new Float32Array(n);
+  const mBuf = new Float32Array(n);
   const rho = spec.surfaceCorrelation;
   const rho2 = Math.sqrt(Math.max(0, 1 - rho * rho));
   const tcDet = st.tc;
@@ -151,15 +153,16 @@ export function runSweepPart(base: SweepBase, spec: UncertaintySpec, start: numb
   const rowAreas = new Float64Array(g.nx);
   for (let r = start; r < end; r++) {
     const drawn = sampleParams(st.params, spec, rngStream(spec.seed, r, 'params'));
-    // perturbed surfaces (new arrays: the pipeline keeps references to its inputs)
+    // perturbed surfaces, into buffers reused between realisations (nothing of a realisation's stage
+    // is kept past its own iteration)
     let held = 0;
     let basement = b0;
     let moho = m0;
     if (gen) {
       gen.fill(rng(spec.seed, r, 'basement'), z1);
       gen.fill(rng(spec.seed, r, 'moho'), z2);
-      basement = new Float32Array(n);
-      moho = new Float32Array(n);
+      basement = bBuf;
+      moho = mBuf;
       const sb = base.sigmaBasement;
       const sm = base.sigmaMoho;
       for (let k = 0; k < n; k++) {
@@ -177,7 +180,7 @@ export function runSweepPart(base: SweepBase, spec: UncertaintySpec, start: numb
       moho: onGrid(base.inputs.moho, g, moho),
       seabed: s0 && base.inputs.seabed ? onGrid(base.inputs.seabed, g, s0) : null,
     };
-    const rs = runDomainStage(inputs, { ...base.options, params: { ...drawn.params } as Record<string, unknown>, keepGrids: new Set(), oceanward: st.oceanward, onProgress: undefined, cache: undefined });
+    const rs = runDomainStage(inputs, { ...base.options, params: { ...drawn.params } as Record<string, unknown>, keepGrids: new Set(), oceanward: st.oceanward, thicknessOnly: true, onProgress: undefined, cache: undefined });
     const dom = rs.classified.domains;
     const flags = rs.classified.flags;
     const tc = rs.tc;
