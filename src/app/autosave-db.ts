@@ -3,6 +3,8 @@
  * reload restores everything. Nothing leaves the machine. clearAll() removes every stored byte.
  */
 
+import type { ProjectUncertainty } from '../io/project.js';
+
 const DB = 'taperline';
 const STORE = 'project';
 const KEY = 'current';
@@ -27,6 +29,8 @@ export interface StoredProject {
   plan?: Record<string, unknown>;
   /** Ids of picks the user excluded. */
   excludePicks?: string[];
+  /** Uncertainty settings and the last sweep's lines and figures (its grids are not kept). */
+  uncertainty?: ProjectUncertainty;
 }
 
 /** The files (large, saved when they change) and the rest (small, saved at once on every change). */

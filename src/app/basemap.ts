@@ -8,7 +8,7 @@ import type { StyleSpecification } from 'maplibre-gl';
 import { feature } from 'topojson-client';
 import land50 from 'world-atlas/land-50m.json';
 
-import { BOUNDARY_STYLES, COLOURS, COT_FILL, EXCLUDED_PICK, PICK_STYLES, SUSPECT_PICK } from './map/styles.js';
+import { BOUNDARY_STYLES, COLOURS, COT_FILL, ENVELOPE_DASH, EXCLUDED_PICK, PICK_STYLES, SUSPECT_PICK } from './map/styles.js';
 
 export { BOUNDARY_STYLES, COLOURS, COT_FILL, PICK_STYLES, SUSPECT_PICK };
 
@@ -57,6 +57,7 @@ export function baseStyle(): StyleSpecification {
       boundaries: src(),
       outlines: src(),
       proposals: src(),
+      envelope: src(),
       midline: src(),
       gaps: src(),
       drawn: src(),
@@ -112,6 +113,18 @@ export function baseStyle(): StyleSpecification {
           ...(s.dash ? { 'line-dasharray': s.dash } : {}),
         },
       })),
+      // the sweep's P90 and P10 lines either side of each line (its P50 lies near the line itself)
+      {
+        id: 'envelope',
+        type: 'line',
+        source: 'envelope',
+        filter: ['!=', ['get', 'p'], 50],
+        paint: {
+          'line-color': ['match', ['get', 'kind'], ...BOUNDARY_STYLES.flatMap((s) => [s.kind, s.colour]), '#555555'] as never,
+          'line-width': 1.5,
+          'line-dasharray': ENVELOPE_DASH,
+        },
+      },
       { id: 'gaps', type: 'line', source: 'gaps', paint: { 'line-color': COLOURS.gap, 'line-width': 10, 'line-opacity': 0.75 } },
       { id: 'midline', type: 'line', source: 'midline', paint: { 'line-color': '#404040', 'line-width': 1.2, 'line-dasharray': [2, 2] } },
       {

@@ -6,7 +6,7 @@
 
 import type { GridReadOptions } from '../io/geotiff-read.js';
 import type { GridReadReport } from '../io/report.js';
-import type { DisplayResult, FromWorker, GridRole, Kind, PlanData, Requests, Response, SectionData, ToWorker, VectorRole } from './messages.js';
+import type { DisplayResult, FromWorker, GridRole, Kind, PlanData, Requests, Response, SectionData, SweepDisplay, ToWorker, VectorRole } from './messages.js';
 
 export interface LoadedFile {
   readonly id: string;
@@ -102,6 +102,16 @@ export class Engine {
 
   plan(params: Record<string, unknown>): Promise<PlanData> {
     return this.request('plan', { params });
+  }
+
+  /** Realisations of the last run, on the worker's sub-workers (both cores); progress as the share done. */
+  sweep(spec: Record<string, unknown>, onProgress: (fraction: number) => void): Promise<SweepDisplay> {
+    return this.request('sweep', { spec }, [], (stage, fraction) => stage === 'realisations' && onProgress(fraction));
+  }
+
+  /** Stop a running sweep (its sub-workers); the worker and the run it varies stay. */
+  cancelSweep(): void {
+    this.worker.postMessage({ id: ++this.nextId, kind: 'sweep-cancel' } satisfies ToWorker);
   }
 
   /** Stop whatever runs: terminate the worker, start a new one and reload every file into it. */

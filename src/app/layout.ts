@@ -16,6 +16,7 @@ export interface Slots {
   readout: HTMLElement;
   areas: HTMLElement;
   plan: HTMLElement;
+  uncertainty: HTMLElement;
   warnings: HTMLElement;
   map: HTMLElement;
   section: HTMLElement;
@@ -55,6 +56,7 @@ export function buildLayout(app: HTMLElement, on: LayoutHandlers): Slots {
     readout: h('div', { id: 'inspect', class: 'inspect' }),
     areas: h('div', { id: 'areas' }),
     plan: h('div', { id: 'plan' }),
+    uncertainty: h('div', { id: 'uncertainty' }),
     warnings: h('div', { id: 'warnings', class: 'warnings' }),
     map: h('div', { id: 'map' }),
     section: h('div', { id: 'section-panel', class: 'section-panel', hidden: true }),
@@ -115,6 +117,7 @@ export function buildLayout(app: HTMLElement, on: LayoutHandlers): Slots {
         section('legend', 'Legend', s.legend),
         section('inspect', 'At cursor', s.readout),
         section('areas', 'Areas and lengths', s.areas),
+        section('uncertainty', 'How sure are we? (realisations)', s.uncertainty),
         section('plan', 'Survey plan and sections', s.plan),
         section('warnings', 'Warnings', s.warnings),
       ),

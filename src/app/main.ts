@@ -19,7 +19,8 @@ import { Store, type Actions } from './state.js';
 import { countOf } from './text/format.js';
 import { layerLabel } from './text/labels.js';
 import { aboutDialog } from './panels/about.js';
-import { legendInput, probe, scenarioText } from './views.js';
+import { legendInput, probe, scenarioText, shownResult } from './views.js';
+import { sweepCurrent } from './actions/sweep.js';
 import { mountAreas, mountWarnings } from './panels/areas.js';
 import { mountExport } from './panels/export.js';
 import { mountFiles } from './panels/files.js';
@@ -27,12 +28,14 @@ import { mountLayers } from './panels/layers.js';
 import { mountLegend } from './panels/legend.js';
 import { mountParams } from './panels/params.js';
 import { mountPlan } from './panels/plan.js';
+import { mountUncertainty } from './panels/uncertainty.js';
 import { mountReadout } from './panels/readout.js';
 import { mountSection } from './panels/section.js';
 import type { Ctx } from './actions/context.js';
 import * as files from './actions/files.js';
 import * as persist from './actions/persist.js';
 import { cancelRun, run, scheduleRun } from './actions/run.js';
+import * as sweeps from './actions/sweep.js';
 
 const VERSION = '0.1.0';
 const store = new Store();
@@ -113,6 +116,7 @@ const actions: Actions = {
   async exportFile(path, type) {
     ctx.status('Preparing export…');
     const out = await engine.exportAll(VERSION);
+    if (!out[path] && path.startsWith('uncertainty/')) return ctx.status(`${path}: run the realisations for this run first (How sure are we?)`, true);
     if (!out[path]) return ctx.status(`${path} is not written for this run: the grid holds no value anywhere (see the summary's grids_not_written)`, true);
     download(path.split('/').pop()!, out[path], type);
     ctx.status(`Exported ${path}`);
@@ -135,6 +139,9 @@ const actions: Actions = {
     store.update({ excludePicks: ex.includes(id) ? ex.filter((q) => q !== id) : [...ex, id] });
   },
   showWarnings: () => document.getElementById('sec-warnings')?.scrollIntoView({ block: 'start' }),
+  setUncertainty: (key, raw) => sweeps.setUncertainty(ctx, key, raw),
+  runSweep: () => sweeps.runSweep(ctx),
+  cancelSweep: () => sweeps.cancelSweep(ctx),
 };
 drawing = wireMap(view, store, actions, (t) => ctx.status(t));
 
@@ -147,13 +154,14 @@ mountLegend(slots.legend, store, legendInput);
 mountReadout(slots.readout, store, probe);
 mountAreas(slots.areas, store);
 mountPlan(slots.plan, store, actions);
+mountUncertainty(slots.uncertainty, store, actions);
 mountWarnings(slots.warnings, store);
 mountSection(slots.section, store, actions);
 
 // ---------------------------------------------------------------- map layers from the state
 const empty = { type: 'FeatureCollection', features: [] };
-store.subscribe(['result', 'layer', 'opacity'], (s) => view.overlay.setProps({ layers: raster.layers(s.result, s.layer, s.opacity) }));
-store.subscribe(['result', 'files', 'visible', 'planResult'], (s) => {
+store.subscribe(['result', 'layer', 'opacity', 'sweep'], (s) => view.overlay.setProps({ layers: raster.layers(shownResult(s), s.layer, s.opacity) }));
+store.subscribe(['result', 'files', 'visible', 'planResult', 'sweep'], (s) => {
   const r = s.result;
   const vec = (role: string) => s.files.find((f) => f.kind === 'vector' && f.role === role && !f.error)?.display ?? empty;
   view.setSource('boundaries', r?.boundaries ?? empty);
@@ -165,6 +173,7 @@ store.subscribe(['result', 'files', 'visible', 'planResult'], (s) => {
   view.setSource('proposals', s.planResult?.lines ?? empty);
   view.setSource('midline', s.planResult?.midline ?? empty);
   view.setSource('gaps', s.planResult?.gaps ?? empty);
+  view.setSource('envelope', s.sweep && sweepCurrent(s) ? s.sweep.lines : empty);
   view.applyVisibility(s.visible);
 });
 void view.loaded.then(() => view.applyVisibility(store.state.visible));
@@ -197,7 +206,7 @@ store.subscribe(['visible'], (s) => {
   outlines = s.visible.outlines;
 });
 let restoring = true;
-store.subscribe(['files', 'params', 'layer', 'opacity', 'visible', 'plan', 'excludePicks'], () => restoring || persist.autosave(ctx));
+store.subscribe(['files', 'params', 'layer', 'opacity', 'visible', 'plan', 'excludePicks', 'uncertainty', 'sweep'], () => restoring || persist.autosave(ctx));
 view.map.on('moveend', () => restoring || persist.autosave(ctx));
 
 // ---------------------------------------------------------------- files in

@@ -40,6 +40,22 @@ export interface DisplayResult {
   readonly picks: unknown; // RFC 7946 FeatureCollection
   readonly summary: RunSummary;
   readonly millis: number;
+  /** What the run is made of (uncertainty/sweep.ts runKeyOf): a sweep with another key is out of date. */
+  readonly runKey: string;
+}
+
+/** An uncertainty sweep as the page shows and keeps it. */
+export interface SweepDisplay {
+  readonly runKey: string;
+  readonly realisations: number;
+  readonly seed: number;
+  /** RFC 7946 FeatureCollection of the P90, P50 and P10 lines (properties kind, p). */
+  readonly lines: unknown;
+  /** Per-cell grids on the analysis grid: p-continental, p-transition, p-oceanic (0–1), positional-uncertainty (km). */
+  readonly grids: Record<string, Float32Array>;
+  /** The summary block (export/uncertainty.ts uncertaintySummary). */
+  readonly summary: Record<string, unknown>;
+  readonly millis: number;
 }
 
 /**
@@ -66,13 +82,15 @@ export interface Requests {
   export: { req: { time: string; version: string }; res: { files: Record<string, ArrayBuffer> } };
   section: { req: { lonlat: [number, number][]; title: string }; res: SectionData };
   plan: { req: { params: Record<string, unknown> }; res: PlanData };
+  /** Realisations of the last run on sub-workers (both cores); progress as stage "realisations". */
+  sweep: { req: { spec: Record<string, unknown> }; res: SweepDisplay };
 }
 
 export type Kind = keyof Requests;
 export type Request<K extends Kind = Kind> = { [P in K]: { id: number; kind: P } & Requests[P]['req'] }[K];
 export type Response<K extends Kind> = Requests[K]['res'];
 
-export type ToWorker = Request | { id: number; kind: 'remove'; fileId: string };
+export type ToWorker = Request | { id: number; kind: 'remove'; fileId: string } | { id: number; kind: 'sweep-cancel' };
 
 export interface SectionData {
   readonly title: string;

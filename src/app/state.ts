@@ -4,13 +4,13 @@
  * the keys they show and re-render from them; actions change state only through `update`.
  */
 
-import type { DisplayResult, PlanData, SectionData } from './messages.js';
+import type { DisplayResult, PlanData, SectionData, SweepDisplay } from './messages.js';
 import type { LoadedFile } from './engine.js';
 
 /** What the browser tests (and a curious user's console) can read of the running app. */
 declare global {
   interface Window {
-    __taperline: { ready: boolean; runs: number; lastMillis: number; drawnMillis: number; error: string | null; colourings: () => number; state: AppState; map: import('maplibre-gl').Map; planned?: number };
+    __taperline: { ready: boolean; runs: number; lastMillis: number; drawnMillis: number; error: string | null; colourings: () => number; state: AppState; map: import('maplibre-gl').Map; planned?: number; sweeps?: number; sweepMillis?: number };
   }
 }
 
@@ -36,6 +36,12 @@ export interface AppState {
   /** What the last file action moved (a role taken from another file), shown under Data until the next. */
   filesNote: string | null;
   section: SectionData | null;
+  /** Uncertainty settings the user set (spec keys, uncertainty/spec.ts); saved with the project. */
+  uncertainty: Record<string, unknown>;
+  /** The last sweep (its grids only until a reload; lines and figures are saved with the project). */
+  sweep: SweepDisplay | null;
+  /** Share of the realisations done while a sweep runs. */
+  sweepProgress: number | null;
 }
 
 export type Key = keyof AppState;
@@ -48,7 +54,7 @@ export function initialState(): AppState {
     result: null,
     layer: 'crustal-thickness',
     opacity: 0.85,
-    visible: { boundaries: true, cot: true, licence: true, seismic: true, picks: true, isochrons: true, graticule: true, outlines: false },
+    visible: { boundaries: true, cot: true, licence: true, seismic: true, picks: true, isochrons: true, graticule: true, outlines: false, envelope: true },
     demo: false,
     running: false,
     progress: null,
@@ -59,6 +65,9 @@ export function initialState(): AppState {
     status: { text: 'Starting…', error: false, warnings: 0 },
     filesNote: null,
     section: null,
+    uncertainty: {},
+    sweep: null,
+    sweepProgress: null,
   };
 }
 
@@ -111,4 +120,8 @@ export interface Actions {
   cancelRun(): void;
   togglePick(id: string): void;
   showWarnings(): void;
+  /** Set one uncertainty setting; returns the problem in words, or null when it is accepted. */
+  setUncertainty(key: string, raw: string): string | null;
+  runSweep(): Promise<void>;
+  cancelSweep(): void;
 }

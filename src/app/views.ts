@@ -9,6 +9,8 @@ import { transformer } from '../crs/transform.js';
 import { rampFor } from './map/raster.js';
 import { DEMO_NAME } from './panels/about.js';
 import type { AppState } from './state.js';
+import type { DisplayResult } from './messages.js';
+import { sweepCurrent } from './actions/sweep.js';
 import type { LegendInput } from './text/legend.js';
 import type { ReadoutInput } from './text/readout.js';
 
@@ -20,8 +22,15 @@ export function scenarioText(s: AppState): string {
   return own.length ? 'Your data (kept in this browser only)' : 'No data loaded';
 }
 
-export function legendInput(s: AppState): LegendInput {
+/** The run as the map shows it: with the sweep's grids (probabilities, envelope width) while the sweep varies this run. */
+export function shownResult(s: AppState): DisplayResult | null {
   const r = s.result;
+  if (!r || !s.sweep || !sweepCurrent(s) || !Object.keys(s.sweep.grids).length) return r;
+  return { ...r, grids: { ...r.grids, ...s.sweep.grids } };
+}
+
+export function legendInput(s: AppState): LegendInput {
+  const r = shownResult(s);
   const feats = ((r?.boundaries as { features?: { properties: Record<string, unknown> }[] })?.features ?? []).map((f) => f.properties);
   const picks = ((r?.picks as { features?: { properties: Record<string, unknown> }[] })?.features ?? []).map((f) => f.properties);
   const has = (role: string) => s.files.some((f) => f.role === role && !f.error && (f.features ?? 0) > 0);
@@ -41,6 +50,7 @@ export function legendInput(s: AppState): LegendInput {
       suspectPicks: picks.some((p) => p.suspect === true && !p.excluded),
       excludedPicks: picks.some((p) => p.excluded === true),
       plan: s.planResult !== null,
+      envelope: Boolean(s.sweep && sweepCurrent(s) && s.visible.envelope),
     },
   };
 }
@@ -58,6 +68,6 @@ export function probe(s: AppState): ReadoutInput | null {
   if (!(i >= 0 && j >= 0 && i < g.nx && j < g.ny)) return { lon, lat, crs, xy: [x, y], cell: null };
   const k = j * g.nx + i;
   const values: Record<string, number> = {};
-  for (const [name, v] of Object.entries(r.grids)) values[name] = v[k];
+  for (const [name, v] of Object.entries(shownResult(s)!.grids)) values[name] = v[k];
   return { lon, lat, crs, xy: [x, y], cell: { i, j, domain: r.domains[k], values } };
 }

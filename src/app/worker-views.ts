@@ -14,7 +14,9 @@ import type { VectorSet } from '../io/geojson-read.js';
 import type { PipelineResult } from '../pipeline.js';
 import { sectionCsv } from '../survey/section.js';
 import { planFromResult, sectionAlong } from '../survey/run.js';
-import type { DisplayResult, PlanData, SectionData } from './messages.js';
+import type { DisplayResult, PlanData, SectionData, SweepDisplay } from './messages.js';
+import type { UncertaintyResult } from '../uncertainty/summary.js';
+import { uncertaintyLinesGeoJson } from '../export/uncertainty.js';
 
 /** The picks as the run used them, with their consistency checks, in WGS 84 for the map. */
 export function picksGeoJson(r: PipelineResult): unknown {
@@ -55,7 +57,7 @@ export function displayGeoJson(set: VectorSet): unknown {
   };
 }
 
-export function runDisplay(r: PipelineResult, outlines: boolean, millis: () => number): DisplayResult {
+export function runDisplay(r: PipelineResult, outlines: boolean, millis: () => number): Omit<DisplayResult, 'runKey'> {
   const regional = boundariesGeoJson(r, 'regional');
   // lengths and the COT area as the summary gives them (inside the licence when there is one); the
   // rest of the summary (exact licence clipping of every domain) waits for an export
@@ -112,8 +114,8 @@ export function sectionDisplay(last: PipelineResult, lonlat: [number, number][],
   };
 }
 
-export function planDisplay(last: PipelineResult, params: Record<string, unknown>): PlanData {
-  const sp = planFromResult(last, params);
+export function planDisplay(last: PipelineResult, params: Record<string, unknown>, sweep: UncertaintyResult | null = null): PlanData {
+  const sp = planFromResult(last, params, sweep);
   const crs = last.geometry.crs;
   const ll = (r: [number, number][]) => splitLine(toLonLat(r, crs, 500));
   const fc = (geoms: [number, number][][][], props: (k: number) => Record<string, unknown>) => ({
@@ -135,5 +137,24 @@ export function planDisplay(last: PipelineResult, params: Record<string, unknown
     csv: surveyCsv(sp, crs),
     geojson: JSON.stringify(survey, null, 1) + '\n',
     warnings: sp.plan.warnings,
+  };
+}
+
+/**
+ * A sweep for the page: the percentile lines (WGS 84), P(continental) = P(codes 1–3), P(transition),
+ * P(oceanic) and the positional-uncertainty grid, with the summary block.
+ */
+export function sweepDisplay(last: PipelineResult, u: UncertaintyResult, runKey: string, summary: Record<string, unknown>, millis: number): SweepDisplay {
+  const n = last.geometry.nx * last.geometry.ny;
+  const continental = new Float32Array(n);
+  for (let k = 0; k < n; k++) continental[k] = u.probability[1][k] + u.probability[2][k] + u.probability[3][k];
+  return {
+    runKey,
+    realisations: u.realisations,
+    seed: u.spec.seed,
+    lines: uncertaintyLinesGeoJson(last, u),
+    grids: { 'p-continental': continental, 'p-transition': u.probability[4].slice(), 'p-oceanic': u.probability[5].slice(), 'positional-uncertainty': u.positional.slice() },
+    summary,
+    millis,
   };
 }

@@ -4,13 +4,8 @@
  */
 
 import { parentPort } from 'node:worker_threads';
-import { runSweepPart, sweepBase, type SweepPart } from '../uncertainty/sweep.js';
+import { partArrays, runSweepPart, sweepBase } from '../uncertainty/sweep.js';
 import type { SweepJob } from './sweep-pool.js';
-
-export function partBuffers(p: SweepPart): ArrayBuffer[] {
-  const all = [...p.delta, ...p.cells, ...p.records.flatMap((r) => [r.widths, r.areas, ...(r.licenceAreas ? [r.licenceAreas] : [])]), ...Object.values(p.reach), ...Object.values(p.noData), ...p.domainCount];
-  return [...new Set(all.map((a) => a.buffer as ArrayBuffer))];
-}
 
 parentPort?.on('message', (m: SweepJob) => {
   try {
@@ -18,7 +13,7 @@ parentPort?.on('message', (m: SweepJob) => {
     const part = runSweepPart(base, m.spec, m.start, m.end, (done) => {
       parentPort!.postMessage({ progress: done });
     });
-    parentPort!.postMessage({ part }, partBuffers(part));
+    parentPort!.postMessage({ part }, [...new Set(partArrays(part).map((a) => a.buffer as ArrayBuffer))]);
   } catch (err) {
     parentPort!.postMessage({ error: (err as Error).message });
   }

@@ -42,6 +42,14 @@ export interface Project {
   readonly plan: Record<string, unknown>;
   /** Ids of picks the user excluded. */
   readonly excludePicks: string[];
+  /** Uncertainty settings (flat spec keys) and the last sweep's lines and figures, if any. */
+  readonly uncertainty?: ProjectUncertainty;
+}
+
+export interface ProjectUncertainty {
+  readonly settings: Record<string, number | null>;
+  /** The last sweep as shown: lines (RFC 7946) and summary figures; its grids are not kept. */
+  readonly sweep: { runKey: string; realisations: number; seed: number; lines: unknown; summary: Record<string, unknown>; millis: number } | null;
 }
 
 const B64 = 'ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/';
@@ -86,6 +94,8 @@ export interface ProjectSchema {
   readonly planKeys?: readonly string[];
   /** Map layers the view may name. */
   readonly layers?: readonly string[];
+  /** Uncertainty settings the project may set. */
+  readonly uncertaintyKeys?: readonly string[];
 }
 
 type Json = unknown;
@@ -125,7 +135,9 @@ export function parseProject(text: string, file: string, schema: ProjectSchema =
     if (!Array.isArray(p.excludePicks) || p.excludePicks.some((q) => typeof q !== 'string')) bad('excludePicks', 'must be a list of pick ids (text)');
     excludePicks = [...(p.excludePicks as string[])];
   }
+  const uncertainty = p.uncertainty === undefined || p.uncertainty === null ? undefined : checkUncertainty(p.uncertainty, schema.uncertaintyKeys, bad);
   return {
+    ...(uncertainty ? { uncertainty } : {}),
     format: PROJECT_FORMAT,
     version: p.version as number,
     saved: (p.saved as string | undefined) ?? '',
@@ -200,4 +212,30 @@ function checkView(v: Json, layers: readonly string[] | undefined, bad: (f: stri
   const visible = v.visible === undefined ? {} : v.visible;
   if (!isObject(visible) || Object.values(visible).some((x) => typeof x !== 'boolean')) bad('view.visible', 'must map layer names to true or false');
   return { center: [(c as number[])[0], (c as number[])[1]], zoom: v.zoom as number, layer: v.layer as string, opacity: v.opacity as number, visible: { ...(visible as Record<string, boolean>) } };
+}
+
+function checkUncertainty(v: Json, keys: readonly string[] | undefined, bad: (f: string, m: string) => never): ProjectUncertainty {
+  if (!isObject(v)) bad('uncertainty', 'must be an object with "settings" and "sweep"');
+  const u = v as Record<string, Json>;
+  const settings: Record<string, number | null> = {};
+  if (u.settings !== undefined) {
+    if (!isObject(u.settings)) bad('uncertainty.settings', 'must be an object of numbers');
+    for (const [k, x] of Object.entries(u.settings as Record<string, Json>)) {
+      if (keys && !keys.includes(k)) bad(`uncertainty.settings.${k}`, `is not an uncertainty setting (known: ${keys.join(', ')})`);
+      if (x !== null && !isFiniteNumber(x)) bad(`uncertainty.settings.${k}`, `must be a number or null, not ${shown(x)}`);
+      settings[k] = x as number | null;
+    }
+  }
+  let sweep: ProjectUncertainty['sweep'] = null;
+  if (u.sweep !== undefined && u.sweep !== null) {
+    const w = u.sweep;
+    if (!isObject(w)) bad('uncertainty.sweep', 'must be an object');
+    const o = w as Record<string, Json>;
+    if (typeof o.runKey !== 'string') bad('uncertainty.sweep.runKey', 'must be text');
+    for (const k of ['realisations', 'seed'] as const) if (!Number.isInteger(o[k]) || (o[k] as number) < 0) bad(`uncertainty.sweep.${k}`, `must be a whole number, not ${shown(o[k])}`);
+    if (!isObject(o.lines) || (o.lines as Record<string, Json>).type !== 'FeatureCollection' || !Array.isArray((o.lines as Record<string, Json>).features)) bad('uncertainty.sweep.lines', 'must be a GeoJSON FeatureCollection');
+    if (!isObject(o.summary)) bad('uncertainty.sweep.summary', 'must be an object');
+    sweep = { runKey: o.runKey as string, realisations: o.realisations as number, seed: o.seed as number, lines: o.lines, summary: o.summary as Record<string, unknown>, millis: isFiniteNumber(o.millis) ? o.millis : 0 };
+  }
+  return { settings, sweep };
 }

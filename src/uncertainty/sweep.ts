@@ -83,6 +83,21 @@ export interface SweepBase {
   readonly key: string;
 }
 
+/** Every array of a part (to transfer between threads, never copy). */
+export function partArrays(p: SweepPart): ArrayBufferView[] {
+  return [...p.delta, ...p.cells, ...p.records.flatMap((r) => [r.widths, r.areas, ...(r.licenceAreas ? [r.licenceAreas] : [])]), ...Object.values(p.reach), ...Object.values(p.noData), ...p.domainCount];
+}
+
+/** What a run is made of (inputs by name, size and checksum; resolved parameters; excluded picks): a sweep of another run is out of date. */
+export function runKeyOf(inputs: PipelineInputs, params: Params, excludePicks: readonly string[] = []): string {
+  const id = (v: { name: string; bytes?: number; sha256?: string } | null | undefined) => (v ? [v.name, v.bytes ?? null, v.sha256 ?? null] : null);
+  return JSON.stringify({
+    inputs: [inputs.basement, inputs.moho, inputs.seabed, inputs.licence, inputs.lines, inputs.picks, inputs.isochrons, inputs.crust].map(id),
+    params,
+    excluded: [...excludePicks],
+  });
+}
+
 /** σ(d) of the spec for one surface, on the grid of distances to control. */
 function sigmaGrid(distance: Float32Array, sc: number, sf: number, length: number): Float32Array {
   const out = new Float32Array(distance.length);
@@ -99,13 +114,7 @@ export function sweepBase(inputs: PipelineInputs, options: PipelineOptions, spec
   const g = stage.geometry;
   const control = markControl(g, stage.lines.flatMap((l) => l.coords), stage.picks.map((q) => [q.x, q.y] as [number, number]));
   const distance = distanceTransform(g, control);
-  const key = JSON.stringify({
-    grid: [g.nx, g.ny, g.x0, g.y0, g.dx, g.dy, g.crs.id],
-    inputs: [inputs.basement, inputs.moho, inputs.seabed, inputs.licence, inputs.lines, inputs.picks, inputs.isochrons, inputs.crust].map((v) => (v ? [v.name, v.bytes ?? null, v.sha256 ?? null] : null)),
-    params: stage.params,
-    excluded: options.excludePicks ?? [],
-    spec: { ...spec, realisations: spec.realisations },
-  });
+  const key = JSON.stringify({ grid: [g.nx, g.ny, g.x0, g.y0, g.dx, g.dy, g.crs.id], run: runKeyOf(inputs, stage.params, options.excludePicks), spec });
   return {
     inputs,
     options,

@@ -5,7 +5,11 @@
  */
 
 import { DERIVED } from '../../derive/grids.js';
-import { fromBase64, parseProject, PROJECT_FORMAT, PROJECT_VERSION, toBase64, type Project } from '../../io/project.js';
+import { fromBase64, parseProject, PROJECT_FORMAT, PROJECT_VERSION, toBase64, type Project, type ProjectUncertainty } from '../../io/project.js';
+import { resolveSpec, SPEC_DOCS } from '../../uncertainty/spec.js';
+import { specOf } from './sweep.js';
+import { SWEEP_LAYERS } from '../text/labels.js';
+import type { AppState } from '../state.js';
 import { PARAM_SPECS, resolveParams } from '../../params.js';
 import { PLAN_SPECS, resolvePlan } from '../../survey/params.js';
 import { clearAll, saveProject, saveState, type StoredProject } from '../autosave-db.js';
@@ -18,8 +22,23 @@ import { addFile } from './files.js';
 export const PROJECT_SCHEMA = {
   paramKeys: PARAM_SPECS.map((sp) => sp.key as string),
   planKeys: PLAN_SPECS.map((sp) => sp.key as string),
-  layers: ['domains', ...DERIVED.map((d) => d.name as string)],
+  layers: ['domains', ...DERIVED.map((d) => d.name as string), ...Object.keys(SWEEP_LAYERS)],
+  uncertaintyKeys: SPEC_DOCS.map((d) => d.key),
 };
+
+/** The uncertainty settings and the last sweep without its grids (lines and figures are small). */
+function uncertaintyOf(s: AppState): ProjectUncertainty {
+  const w = s.sweep;
+  return {
+    settings: { ...(s.uncertainty as Record<string, number | null>) },
+    sweep: w ? { runKey: w.runKey, realisations: w.realisations, seed: w.seed, lines: w.lines, summary: w.summary, millis: w.millis } : null,
+  };
+}
+
+/** A saved sweep as the page holds it: no grids (run again for the probability layers). */
+function sweepFrom(u: ProjectUncertainty | undefined): AppState['sweep'] {
+  return u?.sweep ? { ...u.sweep, grids: {} } : null;
+}
 
 function viewState(ctx: Ctx) {
   const c = ctx.view.map.getCenter();
@@ -36,6 +55,7 @@ export function snapshot(ctx: Ctx): StoredProject {
     demo: s.files.some((f) => f.demo),
     plan: { ...s.plan },
     excludePicks: [...s.excludePicks],
+    uncertainty: uncertaintyOf(s),
   };
 }
 
@@ -59,7 +79,10 @@ export function autosave(ctx: Ctx): void {
 export async function restore(ctx: Ctx, p: StoredProject): Promise<void> {
   ctx.status('Restoring your last session…');
   for (const f of p.files) await addFile(ctx, f.name, f.bytes, { role: f.role, options: f.options as LoadedFile['options'], demo: f.demo ?? p.demo });
-  const patch: Parameters<typeof ctx.store.update>[0] = { params: p.params ?? {}, plan: { ...(p.plan ?? {}) }, excludePicks: [...(p.excludePicks ?? [])] };
+  const patch: Parameters<typeof ctx.store.update>[0] = {
+    params: p.params ?? {}, plan: { ...(p.plan ?? {}) }, excludePicks: [...(p.excludePicks ?? [])],
+    uncertainty: { ...(p.uncertainty?.settings ?? {}) }, sweep: sweepFrom(p.uncertainty),
+  };
   // a view saved by another version may name a layer this one lacks: keep the default then
   if (p.view && PROJECT_SCHEMA.layers.includes(p.view.layer)) Object.assign(patch, { layer: p.view.layer, opacity: p.view.opacity, visible: { ...ctx.store.state.visible, ...p.view.visible } });
   ctx.store.update(patch);
@@ -89,6 +112,7 @@ export async function openProjectFile(ctx: Ctx, file: File): Promise<void> {
     p = parseProject(await file.text(), file.name, PROJECT_SCHEMA);
     resolveParams(p.params);
     resolvePlan(p.plan);
+    if (p.uncertainty) resolveSpec(specOf(p.uncertainty.settings));
   } catch (err) {
     ctx.status(`${(err as Error).message}. ${keep}`, true);
     return;
@@ -130,6 +154,7 @@ export async function openProjectFile(ctx: Ctx, file: File): Promise<void> {
   const view = p.view;
   store.update({
     files: staged, params: { ...p.params }, paramErrors: {}, plan: { ...p.plan }, planResult: null, excludePicks: [...p.excludePicks], result: null,
+    uncertainty: { ...(p.uncertainty?.settings ?? {}) }, sweep: sweepFrom(p.uncertainty),
     ...(view ? { layer: view.layer, opacity: view.opacity, visible: { ...store.state.visible, ...view.visible } } : {}),
   });
   if (view) {
@@ -144,7 +169,7 @@ export async function saveProjectFile(ctx: Ctx, bundle: boolean): Promise<void> 
   for (const f of s.files.filter((x) => !x.error)) {
     inputs.push({ name: f.name, kind: f.kind, role: f.role, bytes: f.bytes.byteLength, sha256: await sha256(f.bytes), options: f.options, ...(bundle ? { data: toBase64(new Uint8Array(f.bytes)) } : {}) });
   }
-  const project: Project = { format: PROJECT_FORMAT, version: PROJECT_VERSION, saved: new Date().toISOString(), tool: `taperline ${ctx.version}`, params: resolveParams(s.params) as unknown as Record<string, unknown>, inputs, view: viewState(ctx), plan: { ...s.plan }, excludePicks: [...s.excludePicks] };
+  const project: Project = { format: PROJECT_FORMAT, version: PROJECT_VERSION, saved: new Date().toISOString(), tool: `taperline ${ctx.version}`, params: resolveParams(s.params) as unknown as Record<string, unknown>, inputs, view: viewState(ctx), plan: { ...s.plan }, excludePicks: [...s.excludePicks], uncertainty: uncertaintyOf(s) };
   download(bundle ? 'project-with-data.taperline.json' : 'project.taperline.json', JSON.stringify(project, null, 1), 'application/json');
 }
 

@@ -16,7 +16,8 @@ export function rampFor(name: string, v: Float32Array): RampSpec {
   let r = displayRange(v);
   if (name === 'crustal-thickness' || name === 'airy-thickness') r = { min: 0, max: Math.max(r.max, 1) };
   if (name === 'beta-crust' || name === 'beta-subsidence') r = { min: 1, max: Math.min(Math.max(r.max, 2), 10) };
-  if (name === 'gamma') r = { min: 0, max: 1 };
+  if (name === 'gamma' || name.startsWith('p-')) r = { min: 0, max: 1 };
+  if (name === 'positional-uncertainty') r = { min: 0, max: Math.max(r.max, 1) };
   return r;
 }
 

@@ -26,6 +26,9 @@ export const BOUNDARY_STYLES: { kind: string; label: string; colour: string; das
   { kind: 'coupling-line', label: 'Coupling line (10 km crust)', colour: '#CC79A7', dash: [4, 1.5, 0.8, 1.5], width: 2.5 },
 ];
 
+/** The envelope (P90 and P10 of each line from a sweep): thin, dashed, in the colour of its line. */
+export const ENVELOPE_DASH = [2, 2];
+
 /**
  * The COT zone: a pink no domain colour comes near (tests/app/text.test.ts checks the distance),
  * drawn translucent with a solid outline so the domains stay readable under it.

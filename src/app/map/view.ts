@@ -71,6 +71,7 @@ export function createMapView(container: HTMLElement): MapView {
       vis('licence', visible.licence);
       vis('seismic', visible.seismic);
       vis('picks', visible.picks);
+      vis('envelope', visible.envelope !== false);
       vis('isochrons', visible.isochrons ?? true);
       vis('isochrons-casing', visible.isochrons ?? true);
       vis('graticule', visible.graticule);

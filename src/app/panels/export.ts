@@ -17,6 +17,10 @@ export function mountExport(el: HTMLElement, actions: Actions): void {
       h('button', { id: 'export-summary', onclick: get('summary.json', 'application/json') }, 'Run summary (JSON)'),
       h('div', { class: 'row' }, gridSelect, h('button', { id: 'export-grid-btn', onclick: () => void actions.exportFile(`grids/${gridSelect.value}.tif`, 'image/tiff') }, 'GeoTIFF')),
       h('button', { id: 'export-png', onclick: () => void actions.exportImage() }, 'Map image (PNG)'),
+      h('div', { class: 'legend-title', text: 'After running realisations' }),
+      h('button', { id: 'export-envelope', title: 'P90, P50 and P10 lines, GeoJSON (WGS 84); property p', onclick: get('uncertainty/lines.geojson', 'application/geo+json') }, 'Envelope lines (GeoJSON)'),
+      h('button', { id: 'export-zone-width', title: 'Zone width along strike, P90/P50/P10', onclick: get('uncertainty/zone-width.csv', 'text/csv') }, 'Zone width (CSV)'),
+      h('button', { id: 'export-positional', title: 'P90–P10 envelope width of the limits, km', onclick: get('uncertainty/positional-uncertainty.tif', 'image/tiff') }, 'Envelope width (GeoTIFF)'),
     ),
   );
 }

@@ -3,7 +3,8 @@
 import { DERIVED } from '../../derive/grids.js';
 import { clear, h } from '../dom.js';
 import type { Store } from '../state.js';
-import { layerLabel, OVERLAY_LABELS } from '../text/labels.js';
+import { layerLabel, OVERLAY_LABELS, SWEEP_LAYERS } from '../text/labels.js';
+import { sweepCurrent } from '../actions/sweep.js';
 
 export function mountLayers(el: HTMLElement, store: Store): void {
   const render = () => {
@@ -12,6 +13,7 @@ export function mountLayers(el: HTMLElement, store: Store): void {
     const select = h('select', { id: 'layer-select', onchange: (e: Event) => store.update({ layer: (e.target as HTMLSelectElement).value }) },
       h('option', { value: 'domains', text: layerLabel('domains') }),
       ...DERIVED.map((d) => h('option', { value: d.name, text: layerLabel(d.name) })),
+      ...(s.sweep && sweepCurrent(s) ? Object.keys(SWEEP_LAYERS).map((k) => h('option', { value: k, text: layerLabel(k) })) : []),
     ) as HTMLSelectElement;
     select.value = s.layer;
     // opacity changes only the layer's props: the colouring is cached (map/raster.ts)
@@ -27,6 +29,6 @@ export function mountLayers(el: HTMLElement, store: Store): void {
     );
   };
   // re-rendered when the layer or overlays change (from a project, say), not on every opacity step
-  store.subscribe(['layer', 'visible'], render);
+  store.subscribe(['layer', 'visible', 'sweep', 'result'], render);
   render();
 }

@@ -24,8 +24,17 @@ export const GRID_LABELS: Record<DerivedName, string> = {
 const UNIT_WORDS: Record<string, string> = { m: 'm', Ma: 'Ma', '': 'no unit' };
 
 /** A raster layer's name for the layer list and the legend title, with its unit. */
+/** The sweep's grids (shown after an uncertainty run): probabilities 0–1, the envelope width in km. */
+export const SWEEP_LAYERS: Record<string, string> = {
+  'p-continental': 'Probability of continental crust (realisations)',
+  'p-transition': 'Probability of the transition zone (realisations)',
+  'p-oceanic': 'Probability of oceanic crust (realisations)',
+  'positional-uncertainty': 'Envelope width, P90–P10 of the limits (km)',
+};
+
 export function layerLabel(name: string): string {
   if (name === 'domains') return 'Margin domains (interpretation)';
+  if (SWEEP_LAYERS[name]) return SWEEP_LAYERS[name];
   const d = DERIVED.find((x) => x.name === name);
   if (!d) return name;
   return `${GRID_LABELS[d.name]} (${UNIT_WORDS[d.unit] ?? d.unit})`;
@@ -46,6 +55,7 @@ export const OVERLAY_LABELS: Record<string, string> = {
   picks: 'Interpreter picks',
   isochrons: 'Magnetic isochrons',
   outlines: 'Domain cell outlines',
+  envelope: 'Uncertainty envelope (P90 / P10 lines)',
   graticule: 'Graticule (0.5°)',
 };
 

@@ -6,9 +6,9 @@
 
 import { APPLIES_TEXT, DERIVED } from '../../derive/grids.js';
 import { DOMAIN_STYLES } from '../../domains/styles.js';
-import { BOUNDARY_STYLES, COLOURS, COT_FILL, EXCLUDED_PICK, PICK_STYLES, SUSPECT_PICK } from '../map/styles.js';
+import { BOUNDARY_STYLES, COLOURS, COT_FILL, ENVELOPE_DASH, EXCLUDED_PICK, PICK_STYLES, SUSPECT_PICK } from '../map/styles.js';
 import { num, withUnit } from './format.js';
-import { DOMAIN_LABELS, layerLabel, PICK_KIND_LABELS } from './labels.js';
+import { DOMAIN_LABELS, layerLabel, PICK_KIND_LABELS, SWEEP_LAYERS } from './labels.js';
 
 export type LegendEntry =
   | { readonly type: 'title'; readonly text: string }
@@ -36,6 +36,8 @@ export interface LegendInput {
     readonly suspectPicks: boolean;
     readonly excludedPicks: boolean;
     readonly plan: boolean;
+    /** The sweep's P90 / P10 lines are drawn. */
+    readonly envelope?: boolean;
   };
 }
 
@@ -43,6 +45,13 @@ export function legendEntries(inp: LegendInput): LegendEntry[] {
   const out: LegendEntry[] = [{ type: 'title', text: layerLabel(inp.layer) }];
   if (inp.layer === 'domains') {
     for (const d of DOMAIN_STYLES) out.push({ type: 'fill', colour: `rgb(${d.colour.join(',')})`, label: DOMAIN_LABELS[d.code] });
+  } else if (SWEEP_LAYERS[inp.layer]) {
+    if (inp.ramp) {
+      const km = inp.layer === 'positional-uncertainty';
+      const tick = (v: number) => (km ? withUnit(v, 'km') : num(v, 2));
+      out.push({ type: 'ramp', ticks: [tick(inp.ramp.min), tick((inp.ramp.min + inp.ramp.max) / 2), tick(inp.ramp.max)] });
+    }
+    out.push({ type: 'hint', id: 'sweep-layer', text: inp.layer === 'positional-uncertainty' ? 'Width of the P90–P10 envelope of the taper limit and of the oceanic limit along the oceanward direction, over the envelope.' : 'Share of the realisations in which the cell has this crust type (the thickness rules applied to each realisation).' });
   } else {
     const info = DERIVED.find((d) => d.name === inp.layer);
     if (info && inp.ramp) {
@@ -61,6 +70,9 @@ export function legendEntries(inp: LegendInput): LegendEntry[] {
   }
   for (const s of BOUNDARY_STYLES) if (p.boundaries.includes(s.kind)) out.push({ type: 'line', colour: s.colour, dash: s.dash, width: s.width, label: s.label, casing: true });
   if (p.cot) out.push({ type: 'fill', colour: COT_FILL, outline: COT_FILL, label: 'Continent–ocean transition zone' });
+  if (p.envelope) {
+    out.push({ type: 'line', colour: '#555555', dash: ENVELOPE_DASH, width: 1.5, label: 'P90 and P10 of each line (the envelope): P90 is reached in 90 % of the realisations, P10 in 10 %' });
+  }
   if (p.boundaries.length) {
     out.push({ type: 'line', colour: '#555555', dash: null, width: 4.5, label: 'Placed by picks (bold)' });
     out.push({ type: 'line', colour: '#555555', dash: null, width: 2, label: 'Placed by the thickness proxy (thin)' });
