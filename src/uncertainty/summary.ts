@@ -38,7 +38,7 @@ export interface PercentileFigure {
 export interface UncertaintyResult {
   readonly spec: UncertaintySpec;
   readonly realisations: number;
-  /** P(domain code) per cell, codes 0–6 (index = code). */
+  /** P(domain code) per cell, codes 0–6 (index = code); codes 1–5 no data where every realisation is no data or Moho not imaged. */
   readonly probability: Float32Array[];
   readonly lines: { line: NamedLine; p: Percentile; rings: Ring[] }[];
   /** Zone width (m) per station along strike. */
@@ -112,9 +112,11 @@ export function summarise(base: SweepBase, spec: UncertaintySpec, all: SweepPart
   if (all.start !== 0 || N !== spec.realisations) throw new Error(`summarise: realisations 0…${spec.realisations - 1} needed, ${all.start}…${all.end - 1} given`);
   const g = base.stage.geometry;
   const n = g.nx * g.ny;
-  const probability = all.domainCount.map((c) => {
+  // crust-type probabilities are no data where no realisation has crust to classify (no data or Moho not imaged in all)
+  const never = (k: number) => all.domainCount[0][k] + all.domainCount[6][k] === N;
+  const probability = all.domainCount.map((c, code) => {
     const p = new Float32Array(n);
-    for (let k = 0; k < n; k++) p[k] = c[k] / N;
+    for (let k = 0; k < n; k++) p[k] = code >= 1 && code <= 5 && never(k) ? NaN : c[k] / N;
     return p;
   });
   const rebuild = rebuilder(base, all);

@@ -120,8 +120,8 @@ describe.skipIf(!haveChromium)('realisations in the app', () => {
     await expect(page.locator('#sweep-saved').textContent()).resolves.toMatch(/Run the realisations again for the probability layers/);
     expect(await page.locator('#sweep-stale').count()).toBe(0);
     const runs = await page.evaluate(() => window.__taperline.runs);
-    await page.fill('#param-taperThreshold', '2500');
-    await page.locator('#param-taperThreshold').dispatchEvent('change');
+    await page.fill('#p-taperThreshold', '2500');
+    await page.locator('#p-taperThreshold').dispatchEvent('change');
     await waitReady(page, runs + 1);
     await expect(page.locator('#sweep-stale').textContent()).resolves.toMatch(/changed since these realisations/);
     await page.waitForTimeout(300);
