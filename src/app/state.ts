@@ -46,6 +46,11 @@ export interface AppState {
 
 export type Key = keyof AppState;
 
+/** Whether the sweep on the map varies the run on the map (same inputs, parameters and excluded picks). */
+export function sweepCurrent(s: AppState): boolean {
+  return Boolean(s.sweep && s.result && s.sweep.runKey === s.result.runKey);
+}
+
 export function initialState(): AppState {
   return {
     files: [],

@@ -8,9 +8,8 @@ import { WGS84 } from '../crs/registry.js';
 import { transformer } from '../crs/transform.js';
 import { rampFor } from './map/raster.js';
 import { DEMO_NAME } from './panels/about.js';
-import type { AppState } from './state.js';
+import { sweepCurrent, type AppState } from './state.js';
 import type { DisplayResult } from './messages.js';
-import { sweepCurrent } from './actions/sweep.js';
 import type { LegendInput } from './text/legend.js';
 import type { ReadoutInput } from './text/readout.js';
 

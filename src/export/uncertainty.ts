@@ -13,16 +13,14 @@ import type { NamedLine } from '../boundaries/fields.js';
 import { writeGeoTiff, type TiffWriteOptions } from '../io/geotiff-write.js';
 import type { PipelineResult } from '../pipeline.js';
 import { stationPoint } from '../uncertainty/stations.js';
-import { SPEC_DOCS } from '../uncertainty/spec.js';
+import { CONVENTION, SPEC_DOCS } from '../uncertainty/spec.js';
+
+export { CONVENTION };
 import type { PercentileFigure, UncertaintyResult } from '../uncertainty/summary.js';
 import type { Feature, FeatureCollection } from './geojson.js';
 import { splitLine, toLonLat } from './rfc7946.js';
 import { provenance, tiffTime, type RunInfo } from './outputs.js';
 
-export const CONVENTION =
-  'Pq is what at least q % of the realisations reach: the P90 crustal taper limit is where continental crust reaches at least this far oceanward in 90 % of realisations; ' +
-  'the P90 landward limit of oceanic crust, where oceanic crust reaches at least this far landward in 90 %; the P90 area or width, at least this much in 90 %. ' +
-  'P90 is the cautious (low) case, P10 the generous one.';
 
 export const LINE_KINDS: Record<NamedLine, string> = {
   taper: 'crustal-taper-limit',

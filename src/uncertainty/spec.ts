@@ -16,6 +16,12 @@
 
 import { PARAM_SPECS, ParamError, type Params } from '../params.js';
 
+/** The one convention of every uncertainty figure (summary.ts), in words for the outputs and the app. */
+export const CONVENTION =
+  'Pq is what at least q % of the realisations reach: the P90 crustal taper limit is where continental crust reaches at least this far oceanward in 90 % of realisations; ' +
+  'the P90 landward limit of oceanic crust, where oceanic crust reaches at least this far landward in 90 %; the P90 area or width, at least this much in 90 %. ' +
+  'P90 is the cautious (low) case, P10 the generous one.';
+
 export const SWEPT_PARAMS = ['tc0', 'rhoMantle', 'rhoCrust', 'taperThreshold', 'oceanicThreshold', 'riftAge'] as const;
 export type SweptParam = (typeof SWEPT_PARAMS)[number];
 

@@ -7,6 +7,9 @@ import { planFromResult, sectionAlong } from '../../src/survey/run.js';
 import { sectionCsv } from '../../src/survey/section.js';
 import { DERIVED } from '../../src/derive/grids.js';
 import { runDemo } from '../helpers/demo-run.js';
+import { resolveSpec } from '../../src/uncertainty/spec.js';
+import { runSweep } from '../../src/uncertainty/run.js';
+import { uncertaintyFiles, uncertaintySummary } from '../../src/export/uncertainty.js';
 
 /** Tables of the doc: file name (from the heading) → field → type. CSV columns from "Columns:" lines. */
 function parseDoc(): { fields: Map<string, Map<string, string>>; columns: Map<string, string[]>; grids: string[] } {
@@ -62,17 +65,23 @@ describe('the output schema (docs/outputs.md) against real outputs', async () =>
   const r = await runDemo({ picks: true, licence: true, lines: true, isochrons: true });
   const files = outputFiles(r, { version: 'test', time: '2026-01-01T00:00:00Z', tool: 'cli' });
   const sp = planFromResult(r, {});
-  const geo: Record<string, unknown> = Object.fromEntries(Object.entries(files).filter(([n]) => n.endsWith('.geojson')).map(([n, b]) => [n, JSON.parse(new TextDecoder().decode(b))]));
+  // a small sweep: its files and summary block are documented too
+  const spec = resolveSpec({}, { realisations: 4 });
+  const { result: u } = runSweep(r.inputs, { params: r.params as unknown as Record<string, unknown> }, spec);
+  const run = { version: 'test', time: '2026-01-01T00:00:00Z', tool: 'cli' as const };
+  const swept = { ...outputFiles(r, run, undefined, uncertaintySummary(r, u)), ...uncertaintyFiles(r, u, run) };
+  const geo: Record<string, unknown> = Object.fromEntries(Object.entries(swept).filter(([n]) => n.endsWith('.geojson')).map(([n, b]) => [n, JSON.parse(new TextDecoder().decode(b))]));
   geo['survey-lines.geojson'] = JSON.parse(JSON.stringify(surveyGeoJson(sp, r.geometry.crs)));
+  geo['survey-lines-with-envelope.geojson'] = JSON.parse(JSON.stringify(surveyGeoJson(planFromResult(r, {}, u), r.geometry.crs)));
 
   it('documents every GeoJSON file the run writes', () => {
-    for (const name of Object.keys(geo)) expect(doc.fields.has(name), name).toBe(true);
+    for (const name of Object.keys(geo)) if (name !== 'survey-lines-with-envelope.geojson') expect(doc.fields.has(name), name).toBe(true);
   });
 
   it('every field of every feature is documented with its type', () => {
     const problems: string[] = [];
     for (const [name, fc] of Object.entries(geo)) {
-      const schema = doc.fields.get(name)!;
+      const schema = doc.fields.get(name === 'survey-lines-with-envelope.geojson' ? 'survey-lines.geojson' : name)!;
       for (const f of (fc as { features: { properties: Record<string, unknown> }[] }).features) {
         for (const [k, v] of Object.entries(f.properties)) {
           const declared = schema.get(k);
@@ -103,12 +112,15 @@ describe('the output schema (docs/outputs.md) against real outputs', async () =>
     expect(surveyCsv(sp, r.geometry.crs).split('\n')[0].split(',')).toEqual(doc.columns.get('survey-lines.csv'));
     const s = sectionAlong(r, sp.plan.lines.find((l) => l.kind === 'dip')!.coords);
     expect(sectionCsv(s, 'EPSG:32709').split('\n')[0].split(',')).toEqual(doc.columns.get('section.csv'));
+    expect(new TextDecoder().decode(swept['uncertainty/zone-width.csv']).split('\n')[0].split(',')).toEqual(doc.columns.get('uncertainty/zone-width.csv'));
   });
 
   it('lists every grid the tool can write, and every grid written is listed', () => {
     const documented = new Set(doc.grids);
     for (const g of DERIVED) expect(documented.has(`${g.name}.tif`), g.name).toBe(true);
     for (const name of Object.keys(files).filter((n) => n.endsWith('.tif'))) expect(documented.has(name.replace('grids/', '')), name).toBe(true);
+    const text = readFileSync('docs/outputs.md', 'utf8');
+    for (const name of Object.keys(swept).filter((n) => n.startsWith('uncertainty/') && n.endsWith('.tif'))) expect(text, name).toContain(`| ${name.replace('uncertainty/', '')} |`);
   });
 
   it('lists every top-level key of summary.json', () => {
@@ -116,5 +128,8 @@ describe('the output schema (docs/outputs.md) against real outputs', async () =>
     const summary = JSON.parse(new TextDecoder().decode(files['summary.json']));
     const section = text.slice(text.indexOf('## summary.json'));
     for (const k of Object.keys(summary)) expect(section, k).toContain(`\`${k}\``);
+    const block = JSON.parse(new TextDecoder().decode(swept['summary.json'])).uncertainty;
+    expect(section).toContain('`uncertainty`');
+    for (const k of Object.keys(block)) expect(section, `uncertainty.${k}`).toContain(`\`${k}\``);
   });
 });

@@ -7,7 +7,6 @@
 import { ParamError } from '../../params.js';
 import { resolveSpec } from '../../uncertainty/spec.js';
 import { num } from '../text/format.js';
-import type { AppState } from '../state.js';
 import type { Ctx } from './context.js';
 
 /** Flat settings ("params.tc0": 1500) as a spec object ({ params: { tc0: 1500 } }). */
@@ -20,11 +19,6 @@ export function specOf(flat: Record<string, unknown>): Record<string, unknown> {
     else out[a] = v;
   }
   return out;
-}
-
-/** Whether the sweep on the map varies the run on the map (same inputs, parameters and excluded picks). */
-export function sweepCurrent(s: AppState): boolean {
-  return Boolean(s.sweep && s.result && s.sweep.runKey === s.result.runKey);
 }
 
 export function setUncertainty(ctx: Ctx, key: string, raw: string): string | null {

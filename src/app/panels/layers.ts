@@ -2,9 +2,8 @@
 
 import { DERIVED } from '../../derive/grids.js';
 import { clear, h } from '../dom.js';
-import type { Store } from '../state.js';
+import { sweepCurrent, type Store } from '../state.js';
 import { layerLabel, OVERLAY_LABELS, SWEEP_LAYERS } from '../text/labels.js';
-import { sweepCurrent } from '../actions/sweep.js';
 
 export function mountLayers(el: HTMLElement, store: Store): void {
   const render = () => {

@@ -4,13 +4,11 @@
  * envelope width, and how often thickness could not part the sides. One convention, said once.
  */
 
-import { CONVENTION } from '../../export/uncertainty.js';
-import { DEFAULT_SPEC, SPEC_DOCS } from '../../uncertainty/spec.js';
+import { CONVENTION, DEFAULT_SPEC, SPEC_DOCS } from '../../uncertainty/spec.js';
 import { clear, h } from '../dom.js';
-import type { Actions, Store } from '../state.js';
+import { sweepCurrent, type Actions, type Store } from '../state.js';
 import { num, withUnit } from '../text/format.js';
 import { DOMAIN_LABELS } from '../text/labels.js';
-import { sweepCurrent } from '../actions/sweep.js';
 
 /** The settings shown first; the rest are under "More". */
 const MAIN = ['realisations', 'seed', 'params.tc0', 'params.taperThreshold', 'params.oceanicThreshold', 'moho.sigmaFar', 'basement.sigmaFar'];
