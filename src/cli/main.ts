@@ -102,8 +102,8 @@ top-basement and Moho surfaces (errors small at seismic lines and picks, growing
 Pq is what at least q % of the realisations reach: the P90 crustal taper limit is where continental
 crust reaches at least this far oceanward in 90 % of realisations, the P90 oceanic limit where oceanic
 crust reaches at least this far landward; P90 areas and widths are at least that in 90 %. Writes
-DIR/uncertainty/lines.geojson (P90, P50, P10 of the taper, oceanic, necking and coupling lines;
-property p), probability-<code>-<domain>.tif (per-cell probability of each domain),
+DIR/uncertainty/lines.geojson (P90, P50, P10 of the taper, oceanic, onlap, necking and coupling
+lines; property p), probability-<code>-<domain>.tif (per-cell probability of each domain),
 positional-uncertainty.tif (P90–P10 envelope width of the two limits, km), zone-width.csv (zone
 width along strike) and an "uncertainty" block in summary.json (licence areas P90/P50/P10).
 Uncertainty keys (standard deviations; 0 holds a parameter fixed):

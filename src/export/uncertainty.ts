@@ -22,9 +22,10 @@ import { splitLine, toLonLat } from './rfc7946.js';
 import { provenance, tiffTime, type RunInfo } from './outputs.js';
 
 
-export const LINE_KINDS: Record<NamedLine, string> = {
+export const LINE_KINDS: Record<NamedLine | 'onlap', string> = {
   taper: 'crustal-taper-limit',
   oceanic: 'oceanic-limit',
+  onlap: 'oldest-onlapped-crust',
   necking: 'necking-line',
   coupling: 'coupling-line',
 };

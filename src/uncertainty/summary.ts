@@ -18,6 +18,7 @@
 import { colToX, rowToY, type GridGeometry } from '../grid/geometry.js';
 import { LINE_RULES, NAMED_LINES, sideValue, type NamedLine } from '../boundaries/fields.js';
 import { traceZero } from '../boundaries/extract.js';
+import { onlapLines, onlapOffset, type OnlapPoint } from '../boundaries/onlap.js';
 import { interpolateAlongStrike, strikeOf } from '../boundaries/strike.js';
 import type { Ring } from '../boundaries/planar.js';
 import { DELTA_UNIT, DOMAIN_CODES, NO_THICKNESS, type RealisationRecord, type SweepBase, type SweepPart } from './sweep.js';
@@ -40,7 +41,8 @@ export interface UncertaintyResult {
   readonly realisations: number;
   /** P(domain code) per cell, codes 0–6 (index = code); codes 1–5 no data where every realisation is no data or Moho not imaged. */
   readonly probability: Float32Array[];
-  readonly lines: { line: NamedLine; p: Percentile; rings: Ring[] }[];
+  /** The Pq lines; `onlap` is the Pq oceanic limit moved by the offsets seen at the onlap picks from it (the run's own rule). */
+  readonly lines: { line: NamedLine | 'onlap'; p: Percentile; rings: Ring[] }[];
   /** Zone width (m) per station along strike. */
   readonly widths: { strike: Float64Array; p90: Float32Array; p50: Float32Array; p10: Float32Array; count: Uint16Array };
   /** Envelope width (km) of the taper and oceanic limits: P90 to P10 along the oceanward direction, painted between them. */
@@ -129,6 +131,7 @@ export function summarise(base: SweepBase, spec: UncertaintySpec, all: SweepPart
       lines.push({ line, p, rings: traceZero(g, field) });
     }
   }
+  for (const p of PERCENTILES) lines.push({ line: 'onlap', p, rings: onlapOf(base, lines.find((l) => l.line === 'oceanic' && l.p === p)!.rings) });
   // zone width per station; envelope of the two limits per station, painted onto the grid
   const st = base.stations;
   const S = st.strike.length;
@@ -180,6 +183,24 @@ export function summarise(base: SweepBase, spec: UncertaintySpec, all: SweepPart
     limitedOffsets: all.records.reduce((s, r) => s + r.limitedOffsets, 0),
     stations: st,
   };
+}
+
+/**
+ * The oldest onlapped crust for an oceanic line, by the run's rule (boundaries/onlap.ts): the line
+ * moved by the offsets of the onlap picks from it, interpolated along strike; without usable onlap
+ * picks, the oceanic line itself. With no variance this is the run's onlap line exactly.
+ */
+function onlapOf(base: SweepBase, oceanic: Ring[]): Ring[] {
+  const st = base.stage;
+  const g = st.geometry;
+  const reach = Math.hypot(g.nx * g.dx, g.ny * g.dy);
+  const points: OnlapPoint[] = [];
+  for (const q of st.picks.filter((q) => q.kind === 'onlap')) {
+    const offset = onlapOffset(q.x, q.y, oceanic, st.oceanward, reach);
+    if (Number.isFinite(offset)) points.push({ x: q.x, y: q.y, id: q.id, offset, strike: strikeOf(st.oceanward, q.x, q.y) });
+  }
+  points.sort((a, b) => a.strike - b.strike);
+  return onlapLines(oceanic, points, st.oceanward);
 }
 
 type Rebuild = (line: NamedLine, k: number, out: Float64Array) => number;

@@ -97,6 +97,15 @@ describe.skipIf(!haveChromium)('realisations in the app', () => {
     expect(fc.convention).toMatch(/Pq is what at least q % of the realisations reach/);
     expect(fc.features.every((f: { properties: { p: number } }) => [90, 50, 10].includes(f.properties.p))).toBe(true);
     await page.selectOption('#layer-select', 'crustal-thickness');
+    // survey proposals now rank by the envelope each line crosses, and say so
+    const planned = await page.evaluate(() => window.__taperline.planned ?? 0);
+    await page.locator('#sec-plan').scrollIntoViewIfNeeded();
+    await page.click('#btn-plan');
+    await page.waitForFunction((n) => (window.__taperline.planned ?? 0) > n, planned, { timeout: 30_000 });
+    await expect(page.locator('#plan-ranked-by').textContent()).resolves.toMatch(/P90–P10 envelope width .* overhangs measured from the P90 limits/);
+    const widths = await page.evaluate(() => (window.__taperline.state.planResult!.lines as { features: { properties: { kind: string; envelope_width_km: number | null } }[] }).features.filter((f) => f.properties.kind === 'dip').map((f) => f.properties.envelope_width_km));
+    expect(widths.length).toBeGreaterThan(0);
+    expect(widths.every((w) => typeof w === 'number')).toBe(true);
   });
 
   it('a second run can be cancelled: the first envelope stays', async () => {
