@@ -5,17 +5,7 @@
  * realisation done as it goes.
  */
 
-import type { PipelineInputs, PipelineOptions } from '../pipeline.js';
-import type { UncertaintySpec } from '../uncertainty/spec.js';
-import { partArrays, runSweepPart, sweepBase } from '../uncertainty/sweep.js';
-
-export interface SweepJob {
-  readonly inputs: PipelineInputs;
-  readonly options: Pick<PipelineOptions, 'params' | 'excludePicks'>;
-  readonly spec: UncertaintySpec;
-  readonly start: number;
-  readonly end: number;
-}
+import { partArrays, runSweepPart, sweepBase, type SweepJob } from '../uncertainty/sweep.js';
 
 self.onmessage = (ev: MessageEvent<SweepJob>) => {
   const m = ev.data;

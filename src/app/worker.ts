@@ -15,10 +15,9 @@ import type { DisplayResult, FromWorker, Kind, Request, Response, SweepDisplay, 
 import { displayGeoJson, planDisplay, runDisplay, sectionDisplay, sweepDisplay } from './worker-views.js';
 import { resolveSpec } from '../uncertainty/spec.js';
 import { splitRange, summariseParts } from '../uncertainty/run.js';
-import { runKeyOf, type SweepPart } from '../uncertainty/sweep.js';
+import { runKeyOf, type SweepJob, type SweepPart } from '../uncertainty/sweep.js';
 import type { UncertaintyResult } from '../uncertainty/summary.js';
 import { uncertaintyFiles, uncertaintySummary } from '../export/uncertainty.js';
-import type { SweepJob } from './sweep-worker.js';
 
 const grids = new Map<string, GridInput>();
 const vectors = new Map<string, VectorInput>();

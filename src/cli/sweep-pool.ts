@@ -6,19 +6,13 @@
  */
 
 import { Worker } from 'node:worker_threads';
-import type { PipelineInputs, PipelineOptions } from '../pipeline.js';
+import type { PipelineInputs } from '../pipeline.js';
 import { splitRange } from '../uncertainty/run.js';
 import type { UncertaintySpec } from '../uncertainty/spec.js';
-import type { SweepPart } from '../uncertainty/sweep.js';
+import type { SweepJob, SweepPart } from '../uncertainty/sweep.js';
 import { poolThreads } from './tiff-pool.js';
 
-export interface SweepJob {
-  readonly inputs: PipelineInputs;
-  readonly options: Pick<PipelineOptions, 'params' | 'excludePicks'>;
-  readonly spec: UncertaintySpec;
-  readonly start: number;
-  readonly end: number;
-}
+export type { SweepJob };
 
 type Reply = { part: SweepPart } | { progress: number } | { error: string };
 

@@ -71,6 +71,15 @@ export interface SweepPart {
   readonly domainCount: Uint16Array[];
 }
 
+/** One range of realisations as a thread is given it (the CLI's worker threads, the app's sub-workers). */
+export interface SweepJob {
+  readonly inputs: PipelineInputs;
+  readonly options: Pick<PipelineOptions, 'params' | 'excludePicks'>;
+  readonly spec: UncertaintySpec;
+  readonly start: number;
+  readonly end: number;
+}
+
 /** The deterministic run a sweep varies, and what every realisation shares. */
 export interface SweepBase {
   readonly inputs: PipelineInputs;

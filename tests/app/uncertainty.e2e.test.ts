@@ -4,29 +4,18 @@
 // figures kept with the project over a reload. The time for 200 realisations is printed.
 import { mkdirSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openPage, startApp, waitReady, type App, type OpenedPage } from '../helpers/app.js';
+import { appSession, waitReady } from '../helpers/app.js';
 import { toolOrSkip } from '../helpers/tools.js';
 
 const haveChromium = toolOrSkip('chromium');
 const shots = '.tmp/screens';
 
 describe.skipIf(!haveChromium)('realisations in the app', () => {
-  let app: App;
-  let p: OpenedPage;
-  let ctx: Awaited<ReturnType<App['browser']['newContext']>>;
-
-  beforeAll(async () => {
-    mkdirSync(shots, { recursive: true });
-    app = await startApp();
-    ctx = await app.browser.newContext({ viewport: { width: 1400, height: 900 }, acceptDownloads: true });
-    p = await openPage(app, ctx);
-  }, 180_000);
-  afterAll(async () => {
-    await app?.close();
-  });
+  mkdirSync(shots, { recursive: true });
+  const session = appSession(beforeAll, afterAll);
 
   it('runs 200 realisations off the main thread with progress; the page keeps drawing frames meanwhile', async () => {
-    const { page } = p;
+    const { page } = session.p;
     await page.locator('#sec-uncertainty').scrollIntoViewIfNeeded();
     await page.click('#btn-sweep');
     await page.waitForSelector('#sweep-progress', { timeout: 20_000 });
@@ -71,11 +60,11 @@ describe.skipIf(!haveChromium)('realisations in the app', () => {
     await page.waitForFunction(() => window.__taperline.map.querySourceFeatures('envelope').length > 0, undefined, { timeout: 10_000 });
     await expect(page.locator('#legend').textContent()).resolves.toMatch(/P90 and P10 of each line/);
     await page.screenshot({ path: `${shots}/uncertainty-envelope.png` });
-    expect(p.errors).toEqual([]);
+    expect(session.p.errors).toEqual([]);
   }, 240_000);
 
   it('shows the probability of continental crust as a layer with its legend, and exports the envelope lines', async () => {
-    const { page } = p;
+    const { page } = session.p;
     await page.selectOption('#layer-select', 'p-continental');
     await expect(page.locator('#legend').textContent()).resolves.toMatch(/Probability of continental crust.*0\.00.*0\.50.*1\.00/);
     const values = await page.evaluate(() => {
@@ -109,7 +98,7 @@ describe.skipIf(!haveChromium)('realisations in the app', () => {
   });
 
   it('a second run can be cancelled: the first envelope stays', async () => {
-    const { page } = p;
+    const { page } = session.p;
     await page.fill('#unc-seed', '5');
     await page.locator('#unc-seed').dispatchEvent('change');
     await page.click('#btn-sweep');
@@ -121,7 +110,7 @@ describe.skipIf(!haveChromium)('realisations in the app', () => {
   });
 
   it('keeps the lines and figures with the project over a reload, and marks them out of date after a parameter change', async () => {
-    const page = p.page;
+    const page = session.p.page;
     await page.reload();
     await waitReady(page);
     const kept = await page.evaluate(() => ({ seed: window.__taperline.state.sweep?.seed, n: window.__taperline.state.sweep?.realisations, setting: window.__taperline.state.uncertainty.seed }));

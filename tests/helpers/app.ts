@@ -81,3 +81,20 @@ export async function loadFiles(page: Page, files: Parameters<Page['setInputFile
   await page.setInputFiles('#file-input', files);
   if (demo) await page.click(`#ask-${answer}`);
 }
+
+/**
+ * One built app, one browser context (1400 × 900, downloads on) and its first page for a describe
+ * block: started before its tests, closed after them. Read the fields inside the tests.
+ */
+export function appSession(beforeAll: (fn: () => Promise<void>, timeout?: number) => void, afterAll: (fn: () => Promise<void>) => void) {
+  const s = {} as { app: App; ctx: Awaited<ReturnType<Browser['newContext']>>; p: OpenedPage };
+  beforeAll(async () => {
+    s.app = await startApp();
+    s.ctx = await s.app.browser.newContext({ viewport: { width: 1400, height: 900 }, acceptDownloads: true });
+    s.p = await openPage(s.app, s.ctx);
+  }, 180_000);
+  afterAll(async () => {
+    await s.app?.close();
+  });
+  return s;
+}
