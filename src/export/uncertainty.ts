@@ -38,15 +38,21 @@ export function uncertaintyLinesGeoJson(r: PipelineResult, u: UncertaintyResult)
   const step = Math.abs(r.geometry.dx);
   const features: Feature[] = [];
   for (const l of u.lines) {
-    l.rings.forEach((ring, k) => {
+    let part = 0;
+    for (const ring of l.rings) {
+      // a zero line that only touches 0 at one sample leaves a sliver of sub-millimetre length: no line
+      let planar = 0;
+      for (let q = 1; q < ring.length; q++) planar += Math.hypot(ring[q][0] - ring[q - 1][0], ring[q][1] - ring[q - 1][1]);
+      if (planar < step * 1e-3) continue;
       const parts = splitLine(toLonLat(ring, crs, step));
+      if (!parts.length) continue;
       const length = parts.reduce((s, p) => s + geodesicLength(p.flat()), 0);
       features.push({
         type: 'Feature',
-        properties: { kind: LINE_KINDS[l.line], p: l.p, part: k + 1, length_km: r3(length / 1000), realisations: u.realisations, seed: u.spec.seed },
+        properties: { kind: LINE_KINDS[l.line], p: l.p, part: ++part, length_km: r3(length / 1000), realisations: u.realisations, seed: u.spec.seed },
         geometry: parts.length === 1 ? { type: 'LineString', coordinates: parts[0] } : { type: 'MultiLineString', coordinates: parts },
       });
-    });
+    }
   }
   return { type: 'FeatureCollection', convention: CONVENTION, features };
 }

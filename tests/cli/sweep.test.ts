@@ -7,7 +7,12 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoFiles } from '../../fixtures/demo-files.js';
 import { DEMO_PARAMS } from '../../fixtures/demo-margin.js';
+import { execFileSync } from 'node:child_process';
 import { taperline } from '../helpers/cli.js';
+import { rfc7946Violations } from '../helpers/rfc7946.js';
+import { GDAL_PYTHON, GDAL_SAMPLES, toolOrSkip } from '../helpers/tools.js';
+
+const gdalPython = toolOrSkip('gdal-python');
 
 const dir = mkdtempSync(join(tmpdir(), 'taperline-sweep-'));
 const f = (name: string) => join(dir, name);
@@ -59,6 +64,22 @@ describe('synth --realisations', () => {
     expect(s.licence_areas_km2.map((q: { code: number }) => q.code)).toEqual([1, 2, 3, 4, 5, 6]);
     const lines = JSON.parse(readFileSync(join(f('a'), 'uncertainty', 'lines.geojson'), 'utf8'));
     expect(new Set(lines.features.map((q: { properties: { p: number } }) => q.properties.p))).toEqual(new Set([90, 50, 10]));
+  });
+
+  it.skipIf(!gdalPython)("the uncertainty grids pass GDAL's COG validator with finite statistics; the lines are RFC 7946 and valid per GDAL", () => {
+    for (const q of readdirSync(join(f('a'), 'uncertainty')).filter((n) => n.endsWith('.tif'))) {
+      const path = join(f('a'), 'uncertainty', q);
+      const text = execFileSync(GDAL_PYTHON, [`${GDAL_SAMPLES}/validate_cloud_optimized_geotiff.py`, '--full-check=yes', path], { encoding: 'utf8' });
+      expect(text, q).toMatch(/is a valid cloud optimized GeoTIFF/);
+      expect(text, q).not.toMatch(/warning/i);
+      const b = JSON.parse(execFileSync('gdalinfo', ['-json', '-stats', path], { encoding: 'utf8' })).bands[0];
+      for (const k of ['minimum', 'maximum', 'mean']) expect(Number.isFinite(b[k]), `${q} ${k}`).toBe(true);
+      if (q.startsWith('probability')) expect(b.minimum >= 0 && b.maximum <= 1, q).toBe(true);
+    }
+    const lines = join(f('a'), 'uncertainty', 'lines.geojson');
+    expect(rfc7946Violations(JSON.parse(readFileSync(lines, 'utf8')))).toEqual([]);
+    const bad = execFileSync('ogrinfo', ['-dialect', 'SQLite', '-sql', 'SELECT COUNT(*) AS n FROM lines WHERE NOT ST_IsValid(geometry)', lines], { encoding: 'utf8' });
+    expect(bad).toMatch(/n \(Integer\) = 0/);
   });
 
   it('refuses misuse with one line: a sweep flag without --realisations, a bad range, a missing part', () => {
