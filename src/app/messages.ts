@@ -106,6 +106,8 @@ export interface SectionData {
 }
 
 export interface PlanData {
+  /** What ranked the dip lines, in words (survey/plan.ts). */
+  readonly rankedBy: string;
   readonly lines: unknown; // RFC 7946 FeatureCollection of proposed lines (properties as in survey-lines.geojson)
   readonly midline: unknown; // FeatureCollection of the smoothed midline
   readonly gaps: unknown; // FeatureCollection of gap stretches (LineStrings along the midline)

@@ -137,6 +137,7 @@ export function planDisplay(last: PipelineResult, params: Record<string, unknown
     csv: surveyCsv(sp, crs),
     geojson: JSON.stringify(survey, null, 1) + '\n',
     warnings: sp.plan.warnings,
+    rankedBy: sp.plan.rankedBy,
   };
 }
 

@@ -299,6 +299,7 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
   const sweep = await sweepOf(flags, inputs, { params: pipelineParams, excludePicks }, out);
   if (sweep === 'part-written') return;
   let planWarnings: string[] = [];
+  let planNote = '';
   const count = await writeAtomically(out, async (put) => {
     if (mode === 'plan') {
       let sp;
@@ -312,6 +313,7 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
       await put('survey-lines.geojson', enc.encode(JSON.stringify(surveyGeoJson(sp, r.geometry.crs), null, 1) + '\n'));
       await put('survey-lines.csv', enc.encode(surveyCsv(sp, r.geometry.crs)));
       planWarnings = sp.plan.warnings;
+      planNote = `proposals ranked ${sp.plan.rankedBy}`;
       return;
     }
     const run = { version: pkg.version, time: runTime(), tool: 'cli' as const, grids };
@@ -329,6 +331,7 @@ async function synth(flags: Map<string, string | true>, out: string, mode: 'synt
     await tiffs;
   });
   for (const w of planWarnings) process.stderr.write(`warning: ${w}\n`);
+  if (planNote) process.stderr.write(`note: ${planNote}\n`);
   for (const w of result.warnings) process.stderr.write(`warning: ${w}\n`);
   process.stdout.write(`wrote ${count} files to ${out}\n`);
 }

@@ -44,9 +44,7 @@ export function surveyGeoJson(sp: SurveyPlan, crs: Crs): Record<string, unknown>
       total_days: r3(sp.programme.totalDays),
       cost: sp.programme.cost,
       parameters: sp.params,
-      ranked_by: sp.plan.lines.some((l) => l.envelopeWidthKm !== null)
-        ? 'P90–P10 envelope width of the taper and oceanic limits crossed (the uncertainty a line would remove) × distance from control ÷ length; overhangs from the P90 limits'
-        : 'zone width crossed × distance from control ÷ length; overhangs from the taper and oceanic limits',
+      ranked_by: sp.plan.rankedBy,
       dropped: sp.plan.dropped,
       gaps: sp.plan.gaps.map((g) => {
         const [lon, lat] = transformer(crs, WGS84).forward(g.at);

@@ -94,6 +94,8 @@ export interface Plan {
   readonly coverage: { midline: Ring; chainageKm: number[]; distanceKm: number[] }[];
   readonly gaps: Gap[];
   readonly warnings: string[];
+  /** What ranked the dip lines, in words (the zone width, or with an envelope the uncertainty crossed). */
+  readonly rankedBy: string;
 }
 
 type P = [number, number];
@@ -165,7 +167,7 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
   if (cur.length > 1) pieces.push(cur);
   if (!pieces.length) {
     warnings.push('no continent–ocean transition is crossed along the oceanward direction: no lines proposed');
-    return { midline: [], segments: [], lines: [], dropped: [], coverage: [], gaps: [], warnings };
+    return { midline: [], segments: [], lines: [], dropped: [], coverage: [], gaps: [], warnings, rankedBy: 'nothing to rank' };
   }
 
   // 2. Smooth and split at turns.
@@ -263,7 +265,9 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
     const crossed = inp.envelope ? (l.envelopeWidthKm ?? 0) : (l.zoneWidthKm ?? 0);
     l.score = (crossed * Math.min(l.controlDistanceKm ?? 0, reach / 1000)) / l.lengthKm;
   }
-  if (inp.envelope) warnings.push('ranked by the P90–P10 envelope width of the taper and oceanic limits each dip line crosses (the uncertainty it would remove) × distance from control ÷ length; overhangs measured from the P90 limits (the envelope\'s outer edges), not from the single lines');
+  const rankedBy = inp.envelope
+    ? 'by the P90–P10 envelope width of the taper and oceanic limits each dip line crosses (the uncertainty it would remove) × distance from control ÷ length; overhangs measured from the P90 limits (the envelope\'s outer edges), not from the single lines'
+    : 'by the zone width each dip line crosses × distance from control ÷ length; overhangs measured from the taper and oceanic limits';
 
   // Dip lines of neighbouring segments must not cross inside the zone: where two do, the one that
   // constrains less (lower score) is dropped, and the list says so.
@@ -339,7 +343,7 @@ export function planSurvey(inp: PlanInput, p: PlanParams): Plan {
   }
   gaps.sort((a, b) => b.lengthKm - a.lengthKm);
   gaps.forEach((g, k) => (g.rank = k + 1));
-  return { midline, segments, lines, dropped, coverage, gaps, warnings };
+  return { midline, segments, lines, dropped, coverage, gaps, warnings, rankedBy };
 }
 
 /**

@@ -319,7 +319,8 @@ describe('proposed lines with an uncertainty envelope', () => {
   it('ranks the lines crossing the wider envelope first and says that it does', () => {
     const first = dips.slice(0, 5);
     for (const d of first) expect((d.coords[0][1] + d.coords[1][1]) / 2).toBeGreaterThanOrEqual(5_100_000);
-    expect(plan.warnings.join(' ')).toMatch(/ranked by the P90–P10 envelope width/);
+    expect(plan.rankedBy).toMatch(/^by the P90–P10 envelope width/);
+    expect(planSurvey(zone(0), params).rankedBy).toMatch(/^by the zone width/);
     expect(planSurvey(zone(0), params).lines.every((l) => l.envelopeWidthKm === null)).toBe(true);
   });
 });

@@ -50,9 +50,7 @@ export function mountPlan(el: HTMLElement, store: Store, actions: Actions): void
         h('tr', {}, h('th', { text: 'Cost' }), h('td', { text: pr.cost === null ? 'set a cost per line-km' : num(pr.cost, 0) })),
       ),
       h('div', { class: 'legend-title', text: 'Ranked proposals (cut the list at your budget)' }),
-      h('p', { class: 'hint', id: 'plan-ranked-by', text: result.warnings.find((w) => /^ranked by the P90–P10/.test(w))
-        ? `Ranked ${result.warnings.find((w) => /^ranked by the P90–P10/.test(w))!.replace(/^ranked /, '')}.`
-        : 'Ranked by the zone width each dip line crosses × distance from control ÷ length. Run the realisations (How sure are we?) to rank by the uncertainty each line would remove.' }),
+      h('p', { class: 'hint', id: 'plan-ranked-by', text: `Ranked ${result.rankedBy}.${/envelope/.test(result.rankedBy) ? '' : ' Run the realisations (How sure are we?) to rank by the uncertainty each line would remove.'}` }),
       h('table', { id: 'proposal-list', class: 'props' },
         h('tr', {}, h('th', { text: '#' }), h('th', { text: 'Line' }), h('th', { text: 'km' }), h('th', { text: 'Total km' }), h('th', { text: 'Record s' }), h('th', { text: '' })),
         ...fc.features.map((f) => h('tr', {},
