@@ -64,6 +64,16 @@ try {
   // the exported map image
   const [dl] = await Promise.all([q.page.waitForEvent('download'), q.page.click('#export-png')]);
   await dl.saveAs(`${out}/map-image.png`);
+
+  // how sure are we: 200 realisations, the envelope on the map and the panel's figures
+  const third = await app.browser.newContext({ viewport: { width: 1600, height: 1000 } });
+  const u = await openPage(app, third);
+  await u.page.click('#btn-sweep');
+  await u.page.waitForFunction(() => (window.__taperline.sweeps ?? 0) >= 1, null, { timeout: 180_000 });
+  await u.page.selectOption('#layer-select', 'p-continental');
+  await u.page.evaluate(() => document.querySelector('#sweep-areas')?.scrollIntoView({ block: 'center' }));
+  await u.page.waitForTimeout(800);
+  await u.page.screenshot({ path: `${out}/uncertainty.png` });
   console.log(`screenshots written to ${out}/`);
 } finally {
   await app.close();
