@@ -107,6 +107,13 @@ describe.skipIf(!haveChromium)('realisations in the app', () => {
     await page.waitForFunction(() => window.__taperline.state.sweepProgress === null, undefined, { timeout: 10_000 });
     await expect(page.locator('#status').textContent()).resolves.toMatch(/cancelled/);
     expect(await page.evaluate(() => window.__taperline.state.sweep!.seed)).toBe(1);
+    // a setting changed while its field has focus, then focus moved (the panel re-renders): no page error
+    await page.fill('#unc-realisations', '50');
+    await page.click('#unc-seed');
+    await page.fill('#unc-realisations', '200');
+    await page.keyboard.press('Tab');
+    await page.waitForTimeout(200);
+    expect(session.p.errors).toEqual([]);
   });
 
   it('keeps the lines and figures with the project over a reload, and marks them out of date after a parameter change', async () => {

@@ -51,7 +51,18 @@ export function mountUncertainty(el: HTMLElement, store: Store, actions: Actions
   };
   const figRow = (label: string, f: Fig, unit: string) =>
     h('tr', {}, h('th', { text: label }), ...[f.p90, f.p50, f.p10].map((v) => h('td', { text: v === null ? '—' : withUnit(v, unit) })));
+  let rendering = false;
   const render = () => {
+    // removing a focused field fires its change handler, which would render again mid-render
+    if (rendering) return;
+    rendering = true;
+    try {
+      renderNow();
+    } finally {
+      rendering = false;
+    }
+  };
+  const renderNow = () => {
     const s = store.state;
     clear(el);
     const running = s.sweepProgress !== null;
