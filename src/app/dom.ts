@@ -24,6 +24,23 @@ export function clear(el: Element): void {
   while (el.firstChild) el.removeChild(el.firstChild);
 }
 
+/**
+ * A panel's render that does not run again inside itself: clearing a panel removes a focused field,
+ * which fires its change handler, which updates the store and would render again mid-render.
+ */
+export function reentrySafe(renderNow: () => void): () => void {
+  let rendering = false;
+  return () => {
+    if (rendering) return;
+    rendering = true;
+    try {
+      renderNow();
+    } finally {
+      rendering = false;
+    }
+  };
+}
+
 export function fmt(v: number, digits = 0): string {
   if (v === Infinity) return '∞';
   if (!Number.isFinite(v)) return '—';

@@ -1,7 +1,7 @@
 /** Survey planning: its values, "Propose lines", the programme and the ranked proposals. */
 
 import { DEFAULT_PLAN, PLAN_SPECS } from '../../survey/params.js';
-import { clear, download, h } from '../dom.js';
+import { clear, download, h, reentrySafe } from '../dom.js';
 import type { Actions, Store } from '../state.js';
 import { num, withUnit } from '../text/format.js';
 
@@ -16,17 +16,6 @@ export function mountPlan(el: HTMLElement, store: Store, actions: Actions): void
           onchange: (e: Event) => actions.setPlan(spec.key, (e.target as HTMLInputElement).value === '' ? null : Number((e.target as HTMLInputElement).value)) });
     return h('div', { class: 'param' }, h('label', { for: `plan-${spec.key}`, text: spec.label }), h('div', { class: 'param-input' }, input, h('span', { class: 'unit', text: spec.unit })),
       h('div', { class: 'doc', text: `${spec.doc} Default ${DEFAULT_PLAN[spec.key] ?? 'none'}. Source: ${spec.source}.` }));
-  };
-  let rendering = false;
-  const render = () => {
-    // removing a focused field fires its change handler, which updates the plan and renders again
-    if (rendering) return;
-    rendering = true;
-    try {
-      renderNow();
-    } finally {
-      rendering = false;
-    }
   };
   const renderNow = () => {
     clear(el);
@@ -71,6 +60,7 @@ export function mountPlan(el: HTMLElement, store: Store, actions: Actions): void
       h('button', { class: 'small', id: 'export-plan-csv', onclick: () => download('survey-lines.csv', result.csv, 'text/csv') }, 'survey-lines.csv'),
     );
   };
+  const render = reentrySafe(renderNow);
   store.subscribe(['planResult', 'plan'], render);
   render();
 }

@@ -5,7 +5,7 @@
  */
 
 import { CONVENTION, DEFAULT_SPEC, SPEC_DOCS } from '../../uncertainty/spec.js';
-import { clear, h } from '../dom.js';
+import { clear, h, reentrySafe } from '../dom.js';
 import { sweepCurrent, type Actions, type Store } from '../state.js';
 import { num, withUnit } from '../text/format.js';
 import { DOMAIN_LABELS } from '../text/labels.js';
@@ -51,17 +51,6 @@ export function mountUncertainty(el: HTMLElement, store: Store, actions: Actions
   };
   const figRow = (label: string, f: Fig, unit: string) =>
     h('tr', {}, h('th', { text: label }), ...[f.p90, f.p50, f.p10].map((v) => h('td', { text: v === null ? '—' : withUnit(v, unit) })));
-  let rendering = false;
-  const render = () => {
-    // removing a focused field fires its change handler, which would render again mid-render
-    if (rendering) return;
-    rendering = true;
-    try {
-      renderNow();
-    } finally {
-      rendering = false;
-    }
-  };
   const renderNow = () => {
     const s = store.state;
     clear(el);
@@ -103,6 +92,7 @@ export function mountUncertainty(el: HTMLElement, store: Store, actions: Actions
       h('p', { class: 'hint', text: 'Realisations show how the lines move under the uncertainties stated here, not every uncertainty there is (the domain rules themselves, the velocity model, structure the grids do not resolve). Decisions rest with qualified professionals and the local rules.' }),
     );
   };
+  const render = reentrySafe(renderNow);
   store.subscribe(['sweep', 'sweepProgress', 'result', 'uncertainty'], render);
   render();
 }
