@@ -386,7 +386,8 @@ async function sweepOf(flags: Map<string, string | true>, inputs: PipelineInputs
     if (!m || Number(m[1]) >= Number(m[2]) || Number(m[2]) > spec.realisations) throw new UsageError(`--realisation-range must be K:M with 0 ≤ K < M ≤ ${spec.realisations} (realisations K…M−1)`);
     const parts = await runSweepThreads(inputs, options, spec, [Number(m[1]), Number(m[2])], threads);
     const file = `sweep-part-${m[1]}-${m[2]}.bin`;
-    const part = writeSweepPart(mergeRange(parts));
+    // the threads' parts of this range as one part
+    const part = writeSweepPart(mergeParts(parts, spec, [Number(m[1]), Number(m[2])]));
     makeDir(out);
     writeFileSync(join(out, file), part);
     process.stdout.write(`wrote realisations ${m[1]}…${Number(m[2]) - 1} to ${join(out, file)} (${((Date.now() - started) / 1000).toFixed(1)} s)\n`);
@@ -411,16 +412,6 @@ async function sweepOf(flags: Map<string, string | true>, inputs: PipelineInputs
   }
   process.stderr.write(`uncertainty: ${spec.realisations} realisations ${mergeText ? 'merged' : 'run'} in ${((Date.now() - started) / 1000).toFixed(1)} s\n`);
   return result;
-}
-
-/** Contiguous parts of one range as one part (the threads of a --realisation-range run). */
-function mergeRange(parts: import('../uncertainty/sweep.js').SweepPart[]) {
-  if (parts.length === 1) return parts[0];
-  const sorted = [...parts].sort((a, b) => a.start - b.start);
-  // mergeParts checks a whole 0…N − 1; shift to check this range alone
-  const shifted = sorted.map((p) => ({ ...p, start: p.start - sorted[0].start, end: p.end - sorted[0].start }));
-  const m = mergeParts(shifted, { ...DEFAULT_SPEC, realisations: sorted[sorted.length - 1].end - sorted[0].start });
-  return { ...m, start: sorted[0].start, end: sorted[sorted.length - 1].end };
 }
 
 const MANIFEST = '.taperline-outputs';

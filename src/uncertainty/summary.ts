@@ -71,18 +71,21 @@ function figure(values: ArrayLike<number>): PercentileFigure {
   return { p90: exceedance(values, 90), p50: exceedance(values, 50), p10: exceedance(values, 10), count };
 }
 
-/** Parts in order, covering 0…N − 1 of one spec, as one. Throws naming what does not fit. */
-export function mergeParts(parts: readonly SweepPart[], spec: UncertaintySpec): SweepPart {
+/**
+ * Parts in order, covering `range` (default 0…N − 1 of the spec: a whole sweep) of one spec, as one.
+ * Throws naming what does not fit.
+ */
+export function mergeParts(parts: readonly SweepPart[], spec: UncertaintySpec, range: readonly [number, number] = [0, spec.realisations]): SweepPart {
   if (!parts.length) throw new Error('no realisations to merge');
   const sorted = [...parts].sort((a, b) => a.start - b.start);
   const key = sorted[0].key;
-  let next = 0;
+  let next = range[0];
   for (const p of sorted) {
     if (p.key !== key) throw new Error(`realisations ${p.start}…${p.end - 1} were made from other inputs, parameters or spec`);
     if (p.start !== next) throw new Error(p.start > next ? `realisations ${next}…${p.start - 1} are missing` : `realisations ${p.start}…${Math.min(next, p.end) - 1} are given twice`);
     next = p.end;
   }
-  if (next !== spec.realisations) throw new Error(`realisations ${next}…${spec.realisations - 1} are missing (the spec asks for ${spec.realisations})`);
+  if (next !== range[1]) throw new Error(`realisations ${next}…${range[1] - 1} are missing (${range[0] === 0 && range[1] === spec.realisations ? `the spec asks for ${spec.realisations}` : `the range is ${range[0]}…${range[1] - 1}`})`);
   if (sorted.length === 1) return sorted[0];
   const n = sorted[0].nx * sorted[0].ny;
   const sum = (pick: (p: SweepPart) => Uint16Array) => {
@@ -95,7 +98,7 @@ export function mergeParts(parts: readonly SweepPart[], spec: UncertaintySpec): 
   };
   return {
     key,
-    start: 0,
+    start: range[0],
     end: next,
     nx: sorted[0].nx,
     ny: sorted[0].ny,
