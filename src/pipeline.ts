@@ -83,6 +83,8 @@ export interface PipelineCache {
   areas?: CellAreaRows;
   /** Rasters of vector evidence (isochron ages, the licence mask): depend on the file and the grid only. */
   rasters?: Map<string, { source: VectorInput; geometry: GridGeometry; values: Float32Array | Uint8Array }>;
+  /** Vector evidence in the analysis CRS (every part of every feature, densified): depends on the file and the CRS only. */
+  mapped?: WeakMap<VectorInput, { crs: string; parts: Ring[][] }>;
   entry: { basement: Float32Array; moho: GridInput; seabed: GridInput | null; key: string; derived: Derived; mohoA: Float32Array; seabedA: Float32Array | null; warnings: string[] } | null;
 }
 
@@ -243,15 +245,26 @@ export function runDomainStage(inputs: PipelineInputs, options: PipelineOptions 
   const picksIn = check(inputs.picks, 'picks');
   const isoIn = check(inputs.isochrons, 'isochrons');
   const crustIn = check(inputs.crust, 'crust');
-  const licence = licenceIn ? licenceIn.set.features.flatMap((f) => f.parts.map((r) => toMap(licenceIn, r))) : null;
+  /** Every part of every feature in the analysis CRS, reused between interactive runs while the file and the CRS stay (never changed downstream). */
+  const mapAll = (v: VectorInput): Ring[][] => {
+    const crs = `${geometry.crs.id} ${geometry.crs.proj4}`;
+    const hit = options.cache?.mapped?.get(v);
+    if (hit && hit.crs === crs) return hit.parts;
+    const parts = v.set.features.map((f) => f.parts.map((r) => toMap(v, r)));
+    if (options.cache) (options.cache.mapped ??= new WeakMap()).set(v, { crs, parts });
+    return parts;
+  };
+  const licence = licenceIn ? mapAll(licenceIn).flat() : null;
   const excluded = new Set(options.excludePicks ?? []);
   const allPicks = picksIn ? pickIdentities(picksIn, (r) => toMap(picksIn, r)[0], excluded) : [];
   for (const id of excluded) if (!allPicks.some((q) => q.id === id)) warnings.push(`excluded pick "${id}" is not in the picks file: nothing excluded for it`);
   const picks = allPicks.filter((q) => !q.excluded);
   if (picks.length < allPicks.length) warnings.push(`${allPicks.length - picks.length} pick${allPicks.length - picks.length > 1 ? 's' : ''} excluded by the user: ${allPicks.filter((q) => q.excluded).map((q) => q.id).join(', ')}`);
-  const lines = linesIn ? linesIn.set.features.map((f, k) => ({ name: String(f.properties.name ?? `line ${k + 1}`), coords: f.parts.map((r) => toMap(linesIn, r)) })) : [];
+  const linesMapped = linesIn ? mapAll(linesIn) : [];
+  const lines = linesIn ? linesIn.set.features.map((f, k) => ({ name: String(f.properties.name ?? `line ${k + 1}`), coords: linesMapped[k] })) : [];
+  const isoMapped = isoIn ? mapAll(isoIn) : [];
   const isochrons: Isochron[] = isoIn
-    ? isoIn.set.features.map((f) => ({ coords: toMap(isoIn, f.parts[0]), age: Number(f.properties.age_ma), label: f.properties.label as string | undefined }))
+    ? isoIn.set.features.map((f, k) => ({ coords: isoMapped[k][0], age: Number(f.properties.age_ma), label: f.properties.label as string | undefined }))
     : [];
 
   /** A raster of a vector input, reused between interactive runs while the file and the grid stay. */

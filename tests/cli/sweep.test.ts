@@ -64,7 +64,7 @@ describe('synth --realisations', () => {
     expect(s.licence_areas_km2.map((q: { code: number }) => q.code)).toEqual([1, 2, 3, 4, 5, 6]);
     const lines = JSON.parse(readFileSync(join(f('a'), 'uncertainty', 'lines.geojson'), 'utf8'));
     expect(new Set(lines.features.map((q: { properties: { p: number } }) => q.properties.p))).toEqual(new Set([90, 50, 10]));
-  });
+  }, 300_000); // six CLI runs of the demo sweep: 70 s on a slow CI machine
 
   it.skipIf(!gdalPython)("the uncertainty grids pass GDAL's COG validator with finite statistics; the lines are RFC 7946 and valid per GDAL", () => {
     for (const q of readdirSync(join(f('a'), 'uncertainty')).filter((n) => n.endsWith('.tif'))) {

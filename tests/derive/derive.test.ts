@@ -161,14 +161,21 @@ describe('pipeline cache (interactive recompute)', () => {
   it('reuses the derived grids when only line parameters change, and gives the same result as a fresh run', async () => {
     const { demoInputs } = await import('../helpers/demo-run.js');
     const { createPipelineCache, runPipeline } = await import('../../src/pipeline.js');
-    const inputs = await demoInputs();
+    const inputs = await demoInputs({ licence: true, lines: true, isochrons: true, picks: true });
     const cache = createPipelineCache();
     const a = runPipeline(inputs, { params: { riftAge: 110 }, cache });
     const b = runPipeline(inputs, { params: { riftAge: 110, taperThreshold: 3000 }, cache });
     expect(b.derived).toBe(a.derived); // reused
+    // the evidence in the analysis CRS too
+    expect(b.evidence.lines[0].coords).toBe(a.evidence.lines[0].coords);
+    expect(b.evidence.licence![0]).toBe(a.evidence.licence![0]);
+    expect(b.evidence.isochrons[0].coords).toBe(a.evidence.isochrons[0].coords);
     const fresh = runPipeline(inputs, { params: { riftAge: 110, taperThreshold: 3000 } });
     expect(Array.from(b.classified.domains)).toEqual(Array.from(fresh.classified.domains));
     expect(b.warnings).toEqual(fresh.warnings);
+    expect(b.evidence).toEqual(fresh.evidence);
+    expect(b.boundaries.pieces).toEqual(fresh.boundaries.pieces);
+    expect(b.boundaries.inLicence).toEqual(fresh.boundaries.inLicence);
     const c = runPipeline(inputs, { params: { riftAge: 100, taperThreshold: 3000 }, cache });
     expect(c.derived).not.toBe(a.derived); // rift age changes the grids: recomputed
   });
