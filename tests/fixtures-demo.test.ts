@@ -16,7 +16,7 @@ import { readXyz } from '../src/io/xyz-read.js';
 import { readGeoJson } from '../src/io/geojson-read.js';
 import { depthFromAge } from '../src/science/age-depth.js';
 import { totalSubsidence } from '../src/science/mckenzie.js';
-import { runDemo } from './helpers/demo-run.js';
+import { readDemoFolder, runDemo } from './helpers/demo-run.js';
 
 const sha = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
 const median = (v: number[]) => [...v].sort((a, b) => a - b)[v.length >> 1];
@@ -27,6 +27,13 @@ describe('demo scenario: files', () => {
   it('is deterministic: two runs give identical bytes', () => {
     const again = demoFiles();
     for (const [name, bytes] of Object.entries(files)) expect(sha(again[name]), name).toBe(sha(bytes));
+  });
+
+  it('fixtures/demo/, which the other tests read, holds these files with these bytes', () => {
+    const folder = readDemoFolder();
+    expect(folder, 'fixtures/demo/ is missing or stale: the global setup should have rebuilt it').not.toBeNull();
+    // (`taperline demo` adds its demo-params.json beside them)
+    for (const [name, bytes] of Object.entries(files)) expect(folder![name] && sha(folder![name]), name).toBe(sha(bytes));
   });
 
   it('is 600 × 400 cells at 500 m in WGS 84 / UTM 9S, in open South Pacific ocean', () => {

@@ -4,7 +4,7 @@ import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, 
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoFiles } from '../../fixtures/demo-files.js';
+import { demoBytes } from '../helpers/demo-run.js';
 import { DEMO_PARAMS } from '../../fixtures/demo-margin.js';
 import { PARAM_SPECS } from '../../src/params.js';
 import { taperline } from '../helpers/cli.js';
@@ -12,7 +12,7 @@ import { taperline } from '../helpers/cli.js';
 const dir = mkdtempSync(join(tmpdir(), 'taperline-cli-'));
 const f = (name: string) => join(dir, name);
 beforeAll(() => {
-  const files = demoFiles();
+  const files = demoBytes();
   for (const name of ['top-basement.tif', 'moho.tif', 'seabed.tif', 'licence.geojson']) writeFileSync(f(name), files[name]);
   writeFileSync(f('cut.tif'), files['moho.tif'].subarray(0, 5000));
   writeFileSync(f('notes.tif'), 'these are my notes, not a grid\n');
@@ -102,12 +102,12 @@ describe('taperline CLI', () => {
 describe('nothing overwritten, nothing stale', () => {
   it('refuses an output folder that holds an input', () => {
     mkdirSync(f('inside'), { recursive: true });
-    writeFileSync(f('inside/boundaries.geojson'), demoFiles()['licence.geojson']);
+    writeFileSync(f('inside/boundaries.geojson'), demoBytes()['licence.geojson']);
     const r = synth(['--licence', f('inside/boundaries.geojson')], f('inside'));
     expect(r.status).toBe(2);
     expect(r.stderr.trim().split('\n')).toHaveLength(1);
     expect(r.stderr).toMatch(/boundaries\.geojson: lies inside the output folder/);
-    expect(readFileSync(f('inside/boundaries.geojson'))).toEqual(Buffer.from(demoFiles()['licence.geojson'])); // untouched
+    expect(readFileSync(f('inside/boundaries.geojson'))).toEqual(Buffer.from(demoBytes()['licence.geojson'])); // untouched
   });
 
   it("removes what a previous run wrote and this one does not, keeps the user's own files, and clears stale temporary folders", () => {
@@ -194,7 +194,7 @@ describe('which grids synth writes (--grids)', () => {
 
 describe('excluding a pick', () => {
   it('--exclude-pick leaves the pick out, and the summary says so', () => {
-    writeFileSync(f('picks.geojson'), demoFiles()['picks.geojson']);
+    writeFileSync(f('picks.geojson'), demoBytes()['picks.geojson']);
     const r = synth(['--seabed', f('seabed.tif'), '--picks', f('picks.geojson'), '--exclude-pick', 'VX-105/continental-limit'], f('excl'));
     expect(r.status).toBe(0);
     const s = JSON.parse(readFileSync(join(f('excl'), 'summary.json'), 'utf8'));
@@ -208,7 +208,7 @@ describe('excluding a pick', () => {
 
 describe('taperline plan', () => {
   it('writes ranked proposals as GeoJSON and CSV with both CRSs stated', async () => {
-    const files = demoFiles();
+    const files = demoBytes();
     for (const name of ['seismic-lines.geojson', 'picks.geojson']) writeFileSync(f(name), files[name]);
     const out = f('plan');
     const r = taperline(['plan', '--top-basement', f('top-basement.tif'), '--moho', f('moho.tif'), '--seabed', f('seabed.tif'), '--existing', f('seismic-lines.geojson'), '--picks', f('picks.geojson'), '--spacing', '25', '--overhang-landward', '15', '--overhang-oceanward', '10', '--out', out]);

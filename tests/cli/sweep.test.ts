@@ -5,7 +5,7 @@ import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'n
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoFiles } from '../../fixtures/demo-files.js';
+import { demoBytes } from '../helpers/demo-run.js';
 import { DEMO_PARAMS } from '../../fixtures/demo-margin.js';
 import { execFileSync } from 'node:child_process';
 import { taperline } from '../helpers/cli.js';
@@ -17,7 +17,7 @@ const gdalPython = toolOrSkip('gdal-python');
 const dir = mkdtempSync(join(tmpdir(), 'taperline-sweep-'));
 const f = (name: string) => join(dir, name);
 beforeAll(() => {
-  const files = demoFiles();
+  const files = demoBytes();
   for (const name of ['top-basement.tif', 'moho.tif', 'seabed.tif', 'licence.geojson', 'picks.geojson', 'seismic-lines.geojson']) writeFileSync(f(name), files[name]);
   writeFileSync(f('params.json'), JSON.stringify(DEMO_PARAMS));
   writeFileSync(f('spec.json'), JSON.stringify({ correlationLength: 8000 }));

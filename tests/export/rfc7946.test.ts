@@ -3,7 +3,7 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { demoFiles } from '../../fixtures/demo-files.js';
+import { demoBytes } from '../helpers/demo-run.js';
 import { afterAll, describe, expect, it } from 'vitest';
 import { geodesicLength, geodesicRingArea } from '../../src/crs/geodesy.js';
 import { lonLatSignedArea, rfcPolygons, splitLine } from '../../src/export/rfc7946.js';
@@ -127,7 +127,7 @@ describe('taperline demo outputs', () => {
     // inside the licence: exact clipped areas; they add up to the licence's geodesic area (it lies in the grid)
     // (no-data cells make no polygon: their area comes from the cells whose centre lies inside)
     const inside = Object.values(s.areas_km2.inside_licence as Record<string, { code: number; km2: number }>).reduce((a, b) => a + b.km2, 0);
-    const licence = JSON.parse(new TextDecoder().decode(demoFiles()['licence.geojson'])).features[0].geometry.coordinates[0];
+    const licence = JSON.parse(new TextDecoder().decode(demoBytes()['licence.geojson'])).features[0].geometry.coordinates[0];
     expect(Math.abs(inside - geodesicRingArea(licence.flat()) / 1e6)).toBeLessThan(1); // km²; the licence lies inside the grid
     // domain areas in the licence add up to the licence area covered by the grid (± one cell row)
     const total = Object.values(s.areas_km2.whole_grid as Record<string, { km2: number }>).reduce((a, b) => a + b.km2, 0);
@@ -139,7 +139,7 @@ describe('taperline demo outputs', () => {
   const gdalPython = toolOrSkip('gdal-python');
   it.skipIf(!gdal)('the COT zone inside the licence has the geodesic area of the exact polygon intersection (GDAL/SpatiaLite ST_Intersection, ST_Area on the ellipsoid)', () => {
     const whole = JSON.parse(readFileSync(join(out, 'boundaries-whole-grid.geojson'), 'utf8'));
-    const licence = JSON.parse(new TextDecoder().decode(demoFiles()['licence.geojson']));
+    const licence = JSON.parse(new TextDecoder().decode(demoBytes()['licence.geojson']));
     const both = {
       type: 'FeatureCollection',
       features: [
