@@ -12,9 +12,11 @@
  *    Where only the old end of the range is too old, it is capped at the rift age (counted).
  * Raw grids stay untouched (the interactive cache reuses them when only domain parameters change),
  * unless `inPlace` (a one-shot batch run): then each is masked where it lies and no copy is made.
+ * Otherwise the grids that do not depend on the domains are masked once per set of raw grids and
+ * shared by every run that reuses them: callers never write into a result's grids.
  */
 
-import { ageFromDepth, depthFromAge } from '../science/age-depth.js';
+import { ageFromDepth, asymptoticDepth, depthFromAge, type AgeDepthCurve } from '../science/age-depth.js';
 import type { Params } from '../params.js';
 import { isContinentalDomain } from '../domains/classify.js';
 import { gridOf, type Derived } from './derive.js';
@@ -69,16 +71,22 @@ export function applyDomains(derived: Derived, domains: Uint8Array, p: Params, i
   const Y = gridOf(raw, 'water-loaded-basement');
   const aMinRaw = gridOf(raw, 'oceanic-age-min');
   const aMaxRaw = gridOf(raw, 'oceanic-age-max');
+  // the continental cells as runs [start, end) in raster order, read by every continental grid below
+  const runs = continentalRuns(domains);
+  const shared = inPlace ? null : sharedOf(derived);
   const grids: Partial<Record<DerivedName, Float32Array>> = {};
   for (const d of DERIVED) {
     const v = raw[d.name];
     if (!v) continue;
-    const out = inPlace ? v : new Float32Array(n);
+    let out: Float32Array;
     if (d.applies === 'all') {
-      for (let k = 0; k < n; k++) out[k] = Number.isFinite(v[k]) ? v[k] : NaN;
-    } else if (d.applies === 'continental') {
-      for (let k = 0; k < n; k++) out[k] = isContinentalDomain(domains[k]) && Number.isFinite(v[k]) ? v[k] : NaN;
-    } else if (d.name === 'oceanic-depth-anomaly') out.fill(NaN); // filled below; the ages are written below for every cell
+      // independent of the domains: one masked copy per set of raw grids, shared by the runs that reuse them (never written)
+      out = shared ? (shared[d.name] ??= maskFinite(v, new Float32Array(n))) : maskFinite(v, v);
+    } else {
+      out = inPlace ? v : new Float32Array(n);
+      if (d.applies === 'continental') maskContinental(v, runs, out);
+      else if (d.name === 'oceanic-depth-anomaly') out.fill(NaN); // filled below; the ages are written below for every cell
+    }
     grids[d.name] = out;
   }
   const ratio = grids['beta-ratio'];
@@ -90,22 +98,23 @@ export function applyDomains(derived: Derived, domains: Uint8Array, p: Params, i
   const anomaly = grids['oceanic-depth-anomaly'];
   const limit = p.riftAge ?? Infinity;
   const curve = p.ageCurve;
+  const tooOld = olderThan(limit, curve);
   // every cell written (read raw first: in place, aMin/aMax are the raw grids)
   for (let k = 0; k < n; k++) {
     const lo = aMinRaw[k];
     let hi = aMaxRaw[k];
     aMin[k] = NaN;
     aMax[k] = NaN;
-    if (domains[k] !== 5 || Y[k] !== Y[k]) continue;
-    const a = ageFromDepth(Y[k], curve);
-    if (a > limit || a === Infinity) {
+    const y = Y[k];
+    if (domains[k] !== 5 || y !== y) continue;
+    if (tooOld(y)) {
       let ref = isochronAge ? isochronAge[k] : NaN;
       if (ref === ref) ref = Math.min(ref, limit);
       else ref = p.riftAge ?? NaN;
       if (p.riftAge !== null) counts.ageOlderThanRift++;
       else counts.noFiniteAge++;
       if (ref === ref) {
-        if (anomaly) anomaly[k] = Y[k] - depthFromAge(ref, curve);
+        if (anomaly) anomaly[k] = y - depthFromAge(ref, curve);
         counts.depthAnomaly++;
       }
       continue;
@@ -115,7 +124,7 @@ export function applyDomains(derived: Derived, domains: Uint8Array, p: Params, i
       hi = limit;
       counts.ageCappedAtRift++;
     }
-    aMax[k] = Number.isFinite(hi) ? hi : NaN;
+    aMax[k] = hi - hi === 0 ? hi : NaN;
   }
 
   const warnings: string[] = [];
@@ -133,4 +142,77 @@ export function applyDomains(derived: Derived, domains: Uint8Array, p: Params, i
       : `${curve} depth at the oldest admissible age (the rift age, ${p.riftAge} Myr)`
     : null;
   return { grids, unboundedBeta, counts, warnings, anomalyReference };
+}
+
+/** out = v where finite, else NaN (x − x is 0 only for a finite x); returns out. */
+function maskFinite(v: Float32Array, out: Float32Array): Float32Array {
+  for (let k = 0; k < v.length; k++) {
+    const x = v[k];
+    out[k] = x - x === 0 ? x : NaN;
+  }
+  return out;
+}
+
+/** Runs [start, end) of continental cells in raster order, as pairs. */
+function continentalRuns(domains: Uint8Array): Int32Array {
+  const n = domains.length;
+  let count = 0;
+  for (let k = 0; k < n; k++) if (isContinentalDomain(domains[k]) && (k === 0 || !isContinentalDomain(domains[k - 1]))) count++;
+  const runs = new Int32Array(2 * count);
+  let q = 0;
+  for (let k = 0; k < n; ) {
+    if (!isContinentalDomain(domains[k])) {
+      k++;
+      continue;
+    }
+    runs[q++] = k;
+    while (k < n && isContinentalDomain(domains[k])) k++;
+    runs[q++] = k;
+  }
+  return runs;
+}
+
+/** out = v where the cell is continental (in one of the runs) and the value finite, else NaN; out may be v. */
+function maskContinental(v: Float32Array, runs: Int32Array, out: Float32Array): void {
+  let from = 0;
+  for (let q = 0; q < runs.length; q += 2) {
+    const a = runs[q];
+    const b = runs[q + 1];
+    out.fill(NaN, from, a);
+    for (let k = a; k < b; k++) {
+      const x = v[k];
+      out[k] = x - x === 0 ? x : NaN;
+    }
+    from = b;
+  }
+  out.fill(NaN, from);
+}
+
+/** The domain-independent masked grids of one set of raw grids (interactive runs reuse the raw grids). */
+const sharedGrids = new WeakMap<Derived, Partial<Record<DerivedName, Float32Array>>>();
+function sharedOf(derived: Derived): Partial<Record<DerivedName, Float32Array>> {
+  let s = sharedGrids.get(derived);
+  if (!s) sharedGrids.set(derived, (s = {}));
+  return s;
+}
+
+/**
+ * Whether a water-loaded depth reads as older than `limit` (Myr) on the curve, or as no finite age:
+ * exactly `ageFromDepth(d) > limit || ageFromDepth(d) === Infinity`, without the logarithm per
+ * cell. The inverse is monotone, so depths more than 1 cm either side of the limit's depth are
+ * decided by comparison; only those within 1 cm (rounding) go through the formula.
+ */
+export function olderThan(limit: number, curve: AgeDepthCurve): (d: number) => boolean {
+  const asymptote = asymptoticDepth(curve);
+  const exact = (d: number) => {
+    const a = ageFromDepth(d, curve);
+    return a > limit || a === Infinity;
+  };
+  if (limit < 0) return () => true; // every age is older
+  if (!(limit < Infinity)) return (d) => d >= asymptote;
+  const dl = depthFromAge(Math.max(0, limit), curve);
+  if (!Number.isFinite(dl)) return exact;
+  const below = dl - 0.01;
+  const above = dl + 0.01;
+  return (d) => (d < below ? d >= asymptote : d > above ? true : exact(d));
 }
