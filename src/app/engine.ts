@@ -6,7 +6,7 @@
 
 import type { GridReadOptions } from '../io/geotiff-read.js';
 import type { GridReadReport } from '../io/report.js';
-import type { DisplayResult, FromWorker, GridRole, Kind, PlanData, Requests, Response, SectionData, SweepDisplay, ToWorker, VectorRole } from './messages.js';
+import type { DisplayResult, FromWorker, GridRole, Kind, LicenceFigures, PlanData, Requests, Response, SectionData, SweepDisplay, ToWorker, VectorRole } from './messages.js';
 
 export interface LoadedFile {
   readonly id: string;
@@ -90,6 +90,11 @@ export class Engine {
     }
     const mine = ++this.lastRun;
     return this.request('run', { grids, vectors, params, outlines, excludePicks }, [], (stage, fraction) => mine === this.lastRun && onProgress(stage, fraction));
+  }
+
+  /** The licence's lengths and COT area for the run with this key (the last one). */
+  figures(runKey: string): Promise<LicenceFigures> {
+    return this.request('figures', { runKey });
   }
 
   async exportAll(version: string): Promise<Record<string, ArrayBuffer>> {

@@ -230,7 +230,7 @@ for (const target of [slots.drop, slots.map]) {
 }
 
 // ---------------------------------------------------------------- start
-window.__taperline = { ready: false, runs: 0, lastMillis: 0, drawnMillis: 0, error: null, colourings: () => raster.colourings, state: store.state, map: view.map };
+window.__taperline = { ready: false, runs: 0, lastMillis: 0, drawnMillis: 0, figuresMillis: 0, error: null, colourings: () => raster.colourings, state: store.state, map: view.map };
 void (async () => {
   let stored: StoredProject | null = null;
   try {

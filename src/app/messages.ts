@@ -15,8 +15,10 @@ export interface RunSummary {
   readonly areas: { code: number; cells: number; km2: number }[];
   readonly areasInLicence: { code: number; cells: number; km2: number }[] | null;
   readonly licenceName: string | null;
-  readonly lengths: Record<string, number>;
-  readonly cotAreaKm2: number;
+  /** Line lengths (km) and the COT zone area (km²), inside the licence when there is one; null until
+   * the page has asked for them (`figures`: the exact licence clip runs after the map is drawn). */
+  readonly lengths: Record<string, number> | null;
+  readonly cotAreaKm2: number | null;
   readonly warnings: string[];
   readonly missing: { kind: string; reason: string }[];
   readonly oceanwardAzimuth: number;
@@ -42,6 +44,12 @@ export interface DisplayResult {
   readonly millis: number;
   /** What the run is made of (uncertainty/sweep.ts runKeyOf): a sweep with another key is out of date. */
   readonly runKey: string;
+}
+
+/** Lengths and the COT area inside the licence, for the run the key names. */
+export interface LicenceFigures {
+  readonly lengths: Record<string, number>;
+  readonly cotAreaKm2: number;
 }
 
 /** An uncertainty sweep as the page shows and keeps it. */
@@ -79,6 +87,8 @@ export interface Requests {
     };
     res: DisplayResult;
   };
+  /** The licence's lengths and COT area for the last run (refused when another run has replaced it). */
+  figures: { req: { runKey: string }; res: LicenceFigures };
   export: { req: { time: string; version: string }; res: { files: Record<string, ArrayBuffer> } };
   section: { req: { lonlat: [number, number][]; title: string }; res: SectionData };
   plan: { req: { params: Record<string, unknown> }; res: PlanData };

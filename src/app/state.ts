@@ -4,13 +4,13 @@
  * the keys they show and re-render from them; actions change state only through `update`.
  */
 
-import type { DisplayResult, PlanData, SectionData, SweepDisplay } from './messages.js';
+import type { DisplayResult, LicenceFigures, PlanData, SectionData, SweepDisplay } from './messages.js';
 import type { LoadedFile } from './engine.js';
 
 /** What the browser tests (and a curious user's console) can read of the running app. */
 declare global {
   interface Window {
-    __taperline: { ready: boolean; runs: number; lastMillis: number; drawnMillis: number; error: string | null; colourings: () => number; state: AppState; map: import('maplibre-gl').Map; planned?: number; sweeps?: number; sweepMillis?: number };
+    __taperline: { ready: boolean; runs: number; lastMillis: number; drawnMillis: number; figuresMillis: number; error: string | null; colourings: () => number; state: AppState; map: import('maplibre-gl').Map; planned?: number; sweeps?: number; sweepMillis?: number };
   }
 }
 
@@ -19,6 +19,8 @@ export interface AppState {
   params: Record<string, unknown>;
   paramErrors: Record<string, string>;
   result: DisplayResult | null;
+  /** The licence's lengths and COT area for the run with this key, measured after its map is drawn. */
+  figures: (LicenceFigures & { runKey: string }) | null;
   layer: string;
   opacity: number;
   visible: Record<string, boolean>;
@@ -57,6 +59,7 @@ export function initialState(): AppState {
     params: {},
     paramErrors: {},
     result: null,
+    figures: null,
     layer: 'crustal-thickness',
     opacity: 0.85,
     visible: { boundaries: true, cot: true, licence: true, seismic: true, picks: true, isochrons: true, graticule: true, outlines: false, envelope: true },

@@ -14,7 +14,7 @@ import type { VectorSet } from '../io/geojson-read.js';
 import type { PipelineResult } from '../pipeline.js';
 import { sectionCsv } from '../survey/section.js';
 import { planFromResult, sectionAlong } from '../survey/run.js';
-import type { DisplayResult, PlanData, SectionData, SweepDisplay } from './messages.js';
+import type { DisplayResult, LicenceFigures, PlanData, SectionData, SweepDisplay } from './messages.js';
 import type { UncertaintyResult } from '../uncertainty/summary.js';
 import { uncertaintyLinesGeoJson } from '../export/uncertainty.js';
 
@@ -59,9 +59,10 @@ export function displayGeoJson(set: VectorSet): unknown {
 
 export function runDisplay(r: PipelineResult, outlines: boolean, millis: () => number): Omit<DisplayResult, 'runKey'> {
   const regional = boundariesGeoJson(r, 'regional');
-  // lengths and the COT area as the summary gives them (inside the licence when there is one); the
-  // rest of the summary (exact licence clipping of every domain) waits for an export
-  const figures = lineFigures(r.boundaries.inLicence ? boundariesGeoJson(r) : regional);
+  // lengths and the COT area as the summary gives them: for the whole grid now; inside a licence they
+  // wait for the exact clip, which the page asks for once the map is drawn (licenceFigures); the rest
+  // of the summary (exact licence clipping of every domain) waits for an export
+  const figures = r.boundaries.hasLicence ? null : lineFigures(regional);
   const gridsOut: Record<string, Float32Array> = {};
   // shown as exported: each grid masked to the domains where its model applies
   for (const name of Object.keys(r.grids)) gridsOut[name] = exportValues(r, name).slice();
@@ -76,8 +77,8 @@ export function runDisplay(r: PipelineResult, outlines: boolean, millis: () => n
       areas: r.areas.total,
       areasInLicence: r.areas.inLicence,
       licenceName: r.licenceName,
-      lengths: figures.lengths,
-      cotAreaKm2: Math.round(figures.cot * 1000) / 1000,
+      lengths: figures?.lengths ?? null,
+      cotAreaKm2: figures ? Math.round(figures.cot * 1000) / 1000 : null,
       warnings: r.warnings,
       missing: r.boundaries.missing,
       oceanwardAzimuth: r.oceanward.azimuth,
@@ -89,6 +90,12 @@ export function runDisplay(r: PipelineResult, outlines: boolean, millis: () => n
     },
     millis: millis(),
   };
+}
+
+/** Lengths and the COT area inside the licence, from the exact clip (a run with a licence only). */
+export function licenceFigures(r: PipelineResult): LicenceFigures {
+  const f = lineFigures(boundariesGeoJson(r, 'licence'));
+  return { lengths: f.lengths, cotAreaKm2: Math.round(f.cot * 1000) / 1000 };
 }
 
 export function sectionDisplay(last: PipelineResult, lonlat: [number, number][], title: string): SectionData {

@@ -12,7 +12,7 @@ import { readGeoTiff } from '../io/geotiff-read.js';
 import { readXyz } from '../io/xyz-read.js';
 import { createPipelineCache, runPipeline, type GridInput, type PipelineResult, type VectorInput } from '../pipeline.js';
 import type { DisplayResult, FromWorker, Kind, Request, Response, SweepDisplay, ToWorker } from './messages.js';
-import { displayGeoJson, planDisplay, runDisplay, sectionDisplay, sweepDisplay } from './worker-views.js';
+import { displayGeoJson, licenceFigures, planDisplay, runDisplay, sectionDisplay, sweepDisplay } from './worker-views.js';
 import { resolveSpec } from '../uncertainty/spec.js';
 import { splitRange, summariseParts } from '../uncertainty/run.js';
 import { runKeyOf, type SweepJob, type SweepPart } from '../uncertainty/sweep.js';
@@ -116,6 +116,11 @@ const handlers: Handlers = {
     const { result } = summariseParts(inputs, options, spec, parts);
     lastSweep = { runKey, result };
     return sweepDisplay(run, result, runKey, uncertaintySummary(run, result), performance.now() - t0);
+  },
+  figures: (m) => {
+    if (!last || lastRunKey !== m.runKey) throw new Error('another run has replaced this one');
+    if (!last.boundaries.hasLicence) throw new Error('this run has no licence');
+    return licenceFigures(last);
   },
   section: (m) => {
     if (!last) throw new Error('compute the grids first');

@@ -82,8 +82,10 @@ export interface GapInterruption {
 
 export interface BoundaryResult {
   readonly pieces: BoundaryPiece[];
-  /** Lines clipped to the licence (same pieces model), or null without a licence. */
+  /** Lines clipped to the licence (same pieces model), or null without a licence. Computed when first read (the exact COT clip). */
   readonly inLicence: BoundaryPiece[] | null;
+  /** Whether the run has a licence (inLicence is then not null), without computing inLicence. */
+  readonly hasLicence: boolean;
   /** One feature per continuous line (whole grid), and clipped to the licence (null without one). */
   readonly lines: BoundaryPiece[];
   readonly linesInLicence: BoundaryPiece[] | null;
@@ -168,9 +170,6 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
     q = 0;
     cot = cot.map((rings) => rings.map(() => simp.rings[q++]));
   }
-  // The zone inside the licence: exact polygon intersection in the analysis CRS (turf's intersect,
-  // polyclip-ts); areas are then measured geodesically on export.
-  const cotLicence = inp.licence ? clipPolygons(cot, inp.licence) : [];
 
   // 3. Oldest onlapped crust from the oceanic limit and the onlap picks.
   const reach = Math.hypot(nx * g.dx, ny * g.dy);
@@ -305,26 +304,33 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   if (cot.length === 0) missing.push({ kind: 'cot-zone', reason: 'no continent–ocean transition zone: no cells lie between continental and oceanic crust' });
   for (const rings of cot) pieces.push({ kind: 'cot-zone', coords: rings, properties: cotProps(rings, false) });
 
-  // 6. Licence.
-  let inLicence: BoundaryPiece[] | null = null;
+  // 6. Licence. The lines are clipped here; the pieces inside the licence (with the COT zone
+  // intersected exactly in the analysis CRS by turf's intersect, polyclip-ts, the costliest step of
+  // an interactive run) when first read: the app draws the whole-grid pieces and asks for the
+  // licence's figures after the map is drawn; exports read them as before.
   let linesInLicence: BoundaryPiece[] | null = null;
+  let inLicence: (() => BoundaryPiece[]) | null = null;
   if (inp.licence) {
+    const licence = inp.licence;
     linesInLicence = [];
     for (const l of wholeLines) {
-      for (const part of clipLineToPolygon(l.coords[0], inp.licence)) {
+      for (const part of clipLineToPolygon(l.coords[0], licence)) {
         const c = dedupe(part);
         if (c.length >= 2) linesInLicence.push({ kind: l.kind, coords: [c], properties: { ...l.properties, clipped_to_licence: true, closed: isClosed(c) } });
       }
     }
-    inLicence = [];
-    for (const piece of pieces) {
-      if (piece.kind === 'cot-zone') continue;
-      for (const part of clipLineToPolygon(piece.coords[0], inp.licence)) {
-        const c = dedupe(part);
-        if (c.length >= 2) inLicence.push({ kind: piece.kind, coords: [c], properties: { ...piece.properties, clipped_to_licence: true, closed: isClosed(c) } });
+    inLicence = () => {
+      const out: BoundaryPiece[] = [];
+      for (const piece of pieces) {
+        if (piece.kind === 'cot-zone') continue;
+        for (const part of clipLineToPolygon(piece.coords[0], licence)) {
+          const c = dedupe(part);
+          if (c.length >= 2) out.push({ kind: piece.kind, coords: [c], properties: { ...piece.properties, clipped_to_licence: true, closed: isClosed(c) } });
+        }
       }
-    }
-    for (const rings of cotLicence) inLicence.push({ kind: 'cot-zone', coords: rings, properties: cotProps(rings, true) });
+      for (const rings of clipPolygons(cot, licence)) out.push({ kind: 'cot-zone', coords: rings, properties: cotProps(rings, true) });
+      return out;
+    };
     notes.push('inside the licence, lines and the COT zone polygon are clipped exactly (in the analysis CRS)');
   }
   const gaps = interruptions.filter((q) => q.cause === 'moho-gap').length;
@@ -332,7 +338,21 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   if (gaps) notes.push(`${gaps} line end${gaps > 1 ? 's stop' : ' stops'} where the Moho is not imaged (see lines_interrupted_by_moho_gap)`);
   if (unres) notes.push(`${unres} line end${unres > 1 ? 's stop' : ' stops'} where thickness cannot resolve the transition (see lines_interrupted_by_unresolved_transition)`);
   const support = { taper: lines.taper, oceanic: lines.oceanic, onlap, necking: lines.necking, coupling: lines.coupling };
-  return { pieces, inLicence, lines: wholeLines, linesInLicence, missing, notes, interruptions, onlap: { points: onlapPoints, skipped: onlapSkipped }, support };
+  let memo: BoundaryPiece[] | undefined;
+  return {
+    pieces,
+    get inLicence() {
+      return inLicence ? (memo ??= inLicence()) : null;
+    },
+    hasLicence: inLicence !== null,
+    lines: wholeLines,
+    linesInLicence,
+    missing,
+    notes,
+    interruptions,
+    onlap: { points: onlapPoints, skipped: onlapSkipped },
+    support,
+  };
 }
 
 const km = (m: number) => (m / 1000).toFixed(1);

@@ -55,7 +55,7 @@ export function pieceToFeature(piece: BoundaryPiece, r: PipelineResult): Feature
   };
 }
 
-export function boundariesGeoJson(r: PipelineResult, which: 'regional' | 'licence' = r.boundaries.inLicence ? 'licence' : 'regional'): FeatureCollection {
+export function boundariesGeoJson(r: PipelineResult, which: 'regional' | 'licence' = r.boundaries.hasLicence ? 'licence' : 'regional'): FeatureCollection {
   const pieces = which === 'licence' && r.boundaries.inLicence ? r.boundaries.inLicence : r.boundaries.pieces;
   return {
     type: 'FeatureCollection',

@@ -108,8 +108,26 @@ describe.skipIf(!haveChromium)('app in headless Chromium', () => {
     const after = await meanLon();
     // the demo thins westward at ~8 km per 50 km: 6 km crust lies ~25 km (≈0.27°) landward of the 2 km line
     expect(before - after).toBeGreaterThan(0.15);
-    const timing = () => p.page.evaluate(() => `${window.__taperline.lastMillis.toFixed(0)} ms computed, ${window.__taperline.drawnMillis.toFixed(0)} ms until the first frame with the new layers`);
+    const timing = () =>
+      p.page.evaluate(
+        () =>
+          `${window.__taperline.lastMillis.toFixed(0)} ms computed, ${window.__taperline.drawnMillis.toFixed(0)} ms until the first frame with the new layers, ` +
+          `${window.__taperline.figuresMillis.toFixed(0)} ms until the lengths and COT area inside the licence are in`,
+      );
     console.log(`recompute after a domain/line parameter change on the demo: ${await timing()}`);
+    // the licence's figures arrive after the map: the table shows them, clipped (smaller than the whole-grid zone, not empty)
+    const areas = await p.page.evaluate(() => {
+      const s = window.__taperline.state;
+      const whole = (s.result!.boundaries as { features: { properties: { kind: string; area_km2?: number } }[] }).features
+        .filter((f) => f.properties.kind === 'cot-zone')
+        .reduce((a, f) => a + (f.properties.area_km2 ?? 0), 0);
+      return { table: document.querySelector('#areas-table')?.textContent ?? '', figures: s.figures, runKey: s.result!.runKey, whole };
+    });
+    expect(areas.figures?.runKey).toBe(areas.runKey);
+    expect(areas.table).not.toMatch(/measuring/);
+    expect(areas.figures!.cotAreaKm2).toBeGreaterThan(0);
+    expect(areas.figures!.cotAreaKm2).toBeLessThan(areas.whole);
+    expect(areas.table).toMatch(/Continent–ocean transition zone[\d,.]+\s?km²/);
     // a parameter of the derived grids: the full recompute
     runs = await p.page.evaluate(() => window.__taperline.runs);
     await p.page.evaluate(() => document.querySelector('#p-tc0')?.closest('details')?.setAttribute('open', ''));

@@ -50,13 +50,15 @@ export async function run(ctx: Ctx): Promise<void> {
     store.update({ result });
     const n = result.summary.warnings.length;
     store.update({ status: { text: `Done in ${num(performance.now() - t0)} ms (pipeline ${num(result.millis)} ms).`, error: false, warnings: n } });
-    // ready (for the browser tests) once the map is idle and the time from the request to the first
-    // frame drawn with the new layers is recorded (the tests print it)
+    // ready (for the browser tests) once the map is idle, the time from the request to the first
+    // frame drawn with the new layers is recorded (the tests print it) and, with a licence, its
+    // lengths and COT area are in
     drawing = true;
     let drawn = false;
     let idle = false;
+    let figured = result.summary.cotAreaKm2 !== null;
     const settle = () => {
-      if (drawn && idle) window.__taperline.ready = true;
+      if (drawn && idle && figured) window.__taperline.ready = true;
     };
     requestAnimationFrame(() =>
       requestAnimationFrame(() => {
@@ -70,6 +72,19 @@ export async function run(ctx: Ctx): Promise<void> {
       settle();
     });
     ctx.view.map.triggerRepaint();
+    if (!figured) {
+      // the exact clip to the licence runs after the map has its new layers (the costliest step of a domain change)
+      try {
+        const f = await engine.figures(result.runKey);
+        if (store.state.result === result) store.update({ figures: { ...f, runKey: result.runKey } });
+      } catch (err) {
+        if (store.state.result === result) ctx.status(`Could not measure the lines and the COT zone inside the licence: ${(err as Error).message}`, true);
+      } finally {
+        window.__taperline.figuresMillis = performance.now() - t0;
+        figured = true;
+        settle();
+      }
+    }
   } catch (err) {
     const msg = (err as Error).message;
     window.__taperline.error = msg;
