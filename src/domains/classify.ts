@@ -156,21 +156,25 @@ export function classify(inp: ClassifyInput): Classified {
   // Oceanic side first: crust at or above the oceanic-limit threshold connected to the oceanward edge.
   const co = components(mo, nx, ny);
   const oceanComp = new Uint8Array(co.count + 1);
-  for (let k = 0; k < n; k++) if (oceanSeed[k] && co.labels[k]) oceanComp[co.labels[k]] = 1;
+  // (seeds lie on the rim only: the loops over seeds run over the rim cells)
+  for (const k of boundary) if (oceanSeed[k] && co.labels[k]) oceanComp[co.labels[k]] = 1;
   const coLabels = co.labels;
-  // a cell on the oceanic side: in a component of the oceanic mask that reaches the oceanward edge
+  // a cell on the oceanic side: in a component of the oceanic mask that reaches the oceanward edge;
+  // the continental mask without it (continental side: crust at or above the taper threshold
+  // connected to the landward edge without passing through oceanic-side crust)
   const onOcean = new Uint8Array(n);
-  for (let k = 0; k < n; k++) if (coLabels[k] > 0 && oceanComp[coLabels[k]] === 1) onOcean[k] = 1;
+  const mcx = new Uint8Array(n);
+  for (let k = 0; k < n; k++) {
+    const l = coLabels[k];
+    if (l > 0 && oceanComp[l] === 1) onOcean[k] = 1;
+    else if (mc[k]) mcx[k] = 1;
+  }
   // An oceanic component that also reaches the landward edge: nothing parts continent from ocean.
   const landO = new Uint8Array(co.count + 1);
-  for (let k = 0; k < n; k++) if (landSeed[k] && onOcean[k]) landO[coLabels[k]] = 1;
-  // Continental side: crust at or above the taper threshold connected to the landward edge without
-  // passing through oceanic-side crust.
-  const mcx = new Uint8Array(n);
-  for (let k = 0; k < n; k++) mcx[k] = mc[k] && !onOcean[k] ? 1 : 0;
+  for (const k of boundary) if (landSeed[k] && onOcean[k]) landO[coLabels[k]] = 1;
   const cc = components(mcx, nx, ny);
   const contComp = new Uint8Array(cc.count + 1);
-  for (let k = 0; k < n; k++) if (landSeed[k] && cc.labels[k]) contComp[cc.labels[k]] = 1;
+  for (const k of boundary) if (landSeed[k] && cc.labels[k]) contComp[cc.labels[k]] = 1;
   // A thick component touching oceanic-side crust or the oceanward edge belongs with the ocean (its
   // cells between the two thresholds are thin relative to oceanic crust), never a block.
   const oceanLinked = new Uint8Array(cc.count + 1);
@@ -187,7 +191,9 @@ export function classify(inp: ClassifyInput): Classified {
   const SIDE_O = 2;
   const side = new Uint8Array(n);
   let merged = 0;
-  const blockSizes = new Map<number, number>();
+  // isolated thick components that may be blocks, in the order first met
+  const candidate = new Uint8Array(cc.count + 1);
+  const candidates: number[] = [];
   for (let k = 0; k < n; k++) {
     if (!valid[k]) continue;
     const lc = cc.labels[k];
@@ -203,7 +209,10 @@ export function classify(inp: ClassifyInput): Classified {
       else flags[k] |= FLAG_UNRESOLVED;
     } else if (onOcean[k]) side[k] = SIDE_O;
     else if (lc > 0 && contComp[lc] === 1) side[k] = SIDE_C;
-    else if (lc > 0 && !oceanLinked[lc]) blockSizes.set(lc, cc.sizes[lc]);
+    else if (lc > 0 && !oceanLinked[lc] && !candidate[lc]) {
+      candidate[lc] = 1;
+      candidates.push(lc);
+    }
   }
   if (merged) {
     warnings.push(
@@ -279,31 +288,32 @@ export function classify(inp: ClassifyInput): Classified {
 
   // Isolated thick components: continental blocks when large enough.
   const blocks: Classified['blocks'] = [];
-  const keepBlock = new Set<number>();
+  const keepBlock = new Uint8Array(cc.count + 1);
   const minBlockKm2 = Math.max(inp.minBlockArea, inp.minBlockCells * inp.cellAreaKm2);
-  for (const [label, cells] of blockSizes) {
+  for (const label of candidates) {
+    const cells = cc.sizes[label];
     const areaKm2 = cells * inp.cellAreaKm2;
     if (areaKm2 >= minBlockKm2 && cells >= inp.minBlockCells) {
-      keepBlock.add(label);
+      keepBlock[label] = 1;
       blocks.push({ label, cells, areaKm2, x: 0, y: 0 });
     }
   }
   if (blocks.length) {
-    const sum = new Map(blocks.map((b) => [b.label, [0, 0]]));
+    const sumI = new Float64Array(cc.count + 1);
+    const sumJ = new Float64Array(cc.count + 1);
     for (let k = 0; k < n; k++) {
-      const s = sum.get(cc.labels[k]);
-      if (s) (s[0] += k % nx), (s[1] += Math.floor(k / nx));
+      const l = cc.labels[k];
+      if (keepBlock[l] === 1) (sumI[l] += k % nx), (sumJ[l] += Math.floor(k / nx));
     }
     for (const b of blocks) {
-      const s = sum.get(b.label)!;
-      b.x = colToX(g, s[0] / b.cells);
-      b.y = rowToY(g, s[1] / b.cells);
+      b.x = colToX(g, sumI[b.label] / b.cells);
+      b.y = rowToY(g, sumJ[b.label] / b.cells);
     }
   }
   for (let k = 0; k < n; k++) {
     if (!valid[k] || side[k]) continue;
     const lc = cc.labels[k];
-    if (lc > 0 && keepBlock.has(lc) && !(flags[k] & FLAG_UNRESOLVED)) {
+    if (lc > 0 && keepBlock[lc] === 1 && !(flags[k] & FLAG_UNRESOLVED)) {
       side[k] = SIDE_C;
       flags[k] |= FLAG_BLOCK;
     }

@@ -1,8 +1,9 @@
 /**
  * Connected components (4-connectivity) of a mask: labels 1..n in the raster order of each
- * component's first cell, 0 = not in the mask. Two raster passes with union–find (provisional labels
- * from the left and upper neighbours, merged; then final labels): sequential memory access, one
- * label grid, no stack.
+ * component's first cell, 0 = not in the mask. Run-based two-pass labelling: each row's runs of mask
+ * cells get a provisional label, joined (union–find) with the runs of the row above that share a
+ * column; then each run's final label is written with one fill. Per cell only the mask is read and
+ * the label written by fill, so large smooth masks (margin domains) cost about one pass over memory.
  */
 export interface Components {
   readonly labels: Int32Array;
@@ -12,8 +13,12 @@ export interface Components {
 }
 
 export function components(mask: Uint8Array, nx: number, ny: number): Components {
-  const n = nx * ny;
-  const labels = new Int32Array(n);
+  const labels = new Int32Array(nx * ny);
+  // every run in raster order: [start, end) as cell indices and its provisional label
+  let runA = new Int32Array(1024);
+  let runB = new Int32Array(1024);
+  let runL = new Int32Array(1024);
+  let runs = 0;
   let parent = new Int32Array(1024);
   let next = 1;
   const find = (a: number): number => {
@@ -26,46 +31,68 @@ export function components(mask: Uint8Array, nx: number, ny: number): Components
     }
     return r;
   };
-  // 1. provisional labels; the smaller root wins a merge (so each root is its set's first label)
+  // 1. runs per row, each joined with the overlapping runs of the row above
+  let prevFirst = 0; // the row above's runs are runs prevFirst … rowFirst − 1
   for (let j = 0; j < ny; j++) {
     const row = j * nx;
-    for (let i = 0; i < nx; i++) {
-      const k = row + i;
-      if (!mask[k]) continue;
-      const left = i > 0 ? labels[k - 1] : 0;
-      const up = j > 0 ? labels[k - nx] : 0;
-      if (!left && !up) {
-        if (next === parent.length) {
-          const grown = new Int32Array(parent.length * 2);
-          grown.set(parent);
-          parent = grown;
+    const rowFirst = runs;
+    let p = prevFirst; // the first run above that may still overlap
+    for (let i = 0; i < nx; ) {
+      if (!mask[row + i]) {
+        i++;
+        continue;
+      }
+      const a = i;
+      while (i < nx && mask[row + i]) i++;
+      const b = i; // columns [a, b)
+      if (runs === runA.length) {
+        runA = grow(runA);
+        runB = grow(runB);
+        runL = grow(runL);
+      }
+      let label = 0;
+      // runs above sharing a column: start before b and end after a (columns of the row above)
+      while (p < rowFirst && runB[p] - (row - nx) <= a) p++;
+      for (let q = p; q < rowFirst && runA[q] - (row - nx) < b; q++) {
+        const r = find(runL[q]);
+        if (!label) label = r;
+        else if (r !== label) {
+          if (r < label) {
+            parent[label] = r;
+            label = r;
+          } else parent[r] = label;
         }
+      }
+      if (!label) {
+        if (next === parent.length) parent = grow(parent);
         parent[next] = next;
-        labels[k] = next++;
-      } else if (left && up && left !== up) {
-        const a = find(left);
-        const b = find(up);
-        if (a < b) parent[b] = a;
-        else if (b < a) parent[a] = b;
-        labels[k] = a < b ? a : b;
-      } else labels[k] = left || up;
+        label = next++;
+      }
+      runA[runs] = row + a;
+      runB[runs] = row + b;
+      runL[runs++] = label;
     }
+    prevFirst = rowFirst;
   }
-  // 2. final labels in raster order of first cells, and sizes
+  // 2. final labels in raster order of first cells (runs are in raster order), and sizes
   const final = new Int32Array(next);
   const sizes: number[] = [0];
   let count = 0;
-  for (let k = 0; k < n; k++) {
-    const p = labels[k];
-    if (!p) continue;
-    const r = find(p);
+  for (let q = 0; q < runs; q++) {
+    const r = find(runL[q]);
     let f = final[r];
     if (!f) {
       f = final[r] = ++count;
       sizes.push(0);
     }
-    labels[k] = f;
-    sizes[f]++;
+    labels.fill(f, runA[q], runB[q]);
+    sizes[f] += runB[q] - runA[q];
   }
   return { labels, count, sizes: Int32Array.from(sizes) };
+}
+
+function grow(a: Int32Array<ArrayBuffer>): Int32Array<ArrayBuffer> {
+  const out = new Int32Array(a.length * 2);
+  out.set(a);
+  return out;
 }

@@ -43,6 +43,17 @@ describe('components', () => {
       expect(Array.from(got.sizes)).toEqual(want.sizes);
     }
   });
+  it('match it on smooth masks with long runs that merge and split from row to row (as margin domains do)', () => {
+    for (const [nx, ny, cut] of [[230, 170, 0.3], [170, 230, -0.4], [97, 301, 1.1]] as const) {
+      const mask = new Uint8Array(nx * ny);
+      for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) mask[j * nx + i] = Math.sin(i / 7) + Math.cos(j / 5) + Math.sin((i + 2 * j) / 11) > cut ? 1 : 0;
+      const got = components(mask, nx, ny);
+      const want = reference(mask, nx, ny);
+      expect(got.count, `${nx}×${ny}`).toBe(want.sizes.length - 1);
+      expect(Array.from(got.labels)).toEqual(want.labels);
+      expect(Array.from(got.sizes)).toEqual(want.sizes);
+    }
+  });
   it('a U shape whose arms meet only at the bottom is one component', () => {
     // 1 0 1
     // 1 0 1
