@@ -242,18 +242,23 @@ export function classify(inp: ClassifyInput): Classified {
     const HIT_THICK = 1;
     const HIT_GAP = 2;
     const HIT_OCEAN = 3;
+    // what a ray meets at each cell, decided once (the sides do not change while the rays run):
+    // no data or no Moho stops it unanswered; a thin gap, oceanic-side crust or thick continental
+    // crust answer it; anything else it passes through
+    const PASS = 255;
+    const meets = new Uint8Array(n);
+    for (let q = 0; q < n; q++) {
+      const t = tc[q];
+      const sq = side[q];
+      meets[q] = !valid[q] || t !== t ? HIT_NONE : t < (taperF ? taperF[q] : taperC) ? HIT_GAP : sq === SIDE_O ? HIT_OCEAN : sq === SIDE_C && t >= (oceanF ? oceanF[q] : oceanC) ? HIT_THICK : PASS;
+    }
     const ray = (i0: number, j0: number, di: number, dj: number): number => {
       for (let s = 1; s < maxSteps; s++) {
         const i = Math.round(i0 + di * s);
         const j = Math.round(j0 + dj * s);
         if (i < 0 || j < 0 || i >= nx || j >= ny) return HIT_NONE;
-        const q = j * nx + i;
-        const t = tc[q];
-        if (!valid[q] || t !== t) return HIT_NONE; // no data or no Moho: cannot tell
-        if (t < (taperF ? taperF[q] : taperC)) return HIT_GAP;
-        const sq = side[q];
-        if (sq === SIDE_O) return HIT_OCEAN;
-        if (sq === SIDE_C && t >= (oceanF ? oceanF[q] : oceanC)) return HIT_THICK;
+        const m = meets[j * nx + i];
+        if (m !== PASS) return m;
       }
       return HIT_NONE;
     };
