@@ -18,6 +18,7 @@ import { DOMAIN_MOHO_GAP, FLAG_UNRESOLVED } from '../domains/classify.js';
 import type { Oceanward } from '../domains/direction.js';
 import type { Params } from '../params.js';
 import { CONTINENTAL_SIDE, namedLineField, OCEANIC_SIDE, sideField, type LineLevels } from './fields.js';
+import { dilate8 } from '../grid/dilate.js';
 import { offsetAt, onlapLines, onlapOffset, strikeOf, type OnlapPoint } from './onlap.js';
 import { simplifyShared } from './simplify.js';
 import { clipLineToPolygon, clipPolygons, distanceToControl, insideRings, signedArea, type Ring } from './planar.js';
@@ -104,18 +105,6 @@ const MAX_PIECE = 10_000;
 const FAR = 1e7;
 
 
-/** Cells that are, or have an 8-neighbour that is, on the side (domain codes, see sideOf). */
-function dilate(domains: Uint8Array, side: Uint8Array, nx: number, ny: number): Uint8Array {
-  const out = new Uint8Array(nx * ny);
-  for (let j = 0; j < ny; j++) {
-    for (let i = 0; i < nx; i++) {
-      if (!side[domains[j * nx + i]]) continue;
-      for (let b = Math.max(0, j - 1); b <= Math.min(ny - 1, j + 1); b++) for (let a = Math.max(0, i - 1); a <= Math.min(nx - 1, i + 1); a++) out[b * nx + a] = 1;
-    }
-  }
-  return out;
-}
-
 type Evidence = 'picks' | 'proxy-near' | 'proxy-far';
 
 export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
@@ -150,8 +139,9 @@ export function extractBoundaries(inp: BoundaryInput): BoundaryResult {
   // O likewise for oceanic cells. Each border edge then interpolates exactly the values its line
   // does, so ring and line share vertices bit for bit even where the two thresholds differ (a
   // transition cell thicker than the taper threshold would otherwise read as "just inside").
-  const nearC = dilate(dom, CONTINENTAL_SIDE, nx, ny);
-  const nearO = dilate(dom, OCEANIC_SIDE, nx, ny);
+  // cells that are, or have an 8-neighbour that is, on each side (domain codes, see sideOf)
+  const nearC = dilate8(dom, CONTINENTAL_SIDE, nx, ny);
+  const nearO = dilate8(dom, OCEANIC_SIDE, nx, ny);
   const cotField = spare;
   for (let k = 0; k < cotField.length; k++) {
     const t = nearC[k] ? -gTaper[k] : FAR;
