@@ -85,6 +85,10 @@ export interface PipelineCache {
   rasters?: Map<string, { source: VectorInput; geometry: GridGeometry; values: Float32Array | Uint8Array }>;
   /** Vector evidence in the analysis CRS (every part of every feature, densified): depends on the file and the CRS only. */
   mapped?: WeakMap<VectorInput, { crs: string; parts: Ring[][] }>;
+  /** The data mask of a set of derived grids (basement, and seabed and sediment where given): depends on them only; never written. */
+  valid?: WeakMap<Derived, Uint8Array>;
+  /** The mean cell area (m²) of a geometry's cell-area rows. */
+  meanCell?: WeakMap<CellAreaRows, number>;
   entry: { basement: Float32Array; moho: GridInput; seabed: GridInput | null; key: string; derived: Derived; mohoA: Float32Array; seabedA: Float32Array | null; warnings: string[] } | null;
 }
 
@@ -308,24 +312,32 @@ export function runDomainStage(inputs: PipelineInputs, options: PipelineOptions 
       for (let k = 0; k < n; k++) if (mask[k]) force[k] = code;
     }
   }
-  const valid = new Uint8Array(n);
-  const b = basementValues;
-  const sed = gridOf(derived.grids, 'sediment-thickness');
   // a cell has data when its basement does and, with a seabed grid, its seabed and sediment do (no pick error)
-  for (let k = 0; k < n; k++) valid[k] = b[k] === b[k] && (!seabed || sed[k] === sed[k]) ? 1 : 0;
+  let valid = options.cache?.valid?.get(derived);
+  if (!valid) {
+    valid = new Uint8Array(n);
+    const b = basementValues;
+    const sed = gridOf(derived.grids, 'sediment-thickness');
+    for (let k = 0; k < n; k++) valid[k] = b[k] === b[k] && (!seabed || sed[k] === sed[k]) ? 1 : 0;
+    if (options.cache) (options.cache.valid ??= new WeakMap()).set(derived, valid);
+  }
   // a keepGrids run lets go of the sediment grid here unless asked for (only the mask above reads it)
   if (options.keepGrids && !options.keepGrids.has('sediment-thickness')) delete derived.grids['sediment-thickness'];
   // geodesic cell areas depend on the geometry only: reuse them between interactive runs; summed
   // row by row (never a grid of them)
   const areaRows = options.cache?.areas && sameGeometry(options.cache.areas.geometry, geometry) ? options.cache.areas : cellAreaRows(geometry);
   if (options.cache) options.cache.areas = areaRows;
-  const rowAreas = new Float64Array(geometry.nx);
-  let meanCell = 0;
-  for (let j = 0; j < geometry.ny; j++) {
-    areaRows.row(j, rowAreas);
-    for (let i = 0; i < geometry.nx; i++) meanCell += rowAreas[i];
+  let meanCell = options.cache?.meanCell?.get(areaRows);
+  if (meanCell === undefined) {
+    const rowAreas = new Float64Array(geometry.nx);
+    meanCell = 0;
+    for (let j = 0; j < geometry.ny; j++) {
+      areaRows.row(j, rowAreas);
+      for (let i = 0; i < geometry.nx; i++) meanCell += rowAreas[i];
+    }
+    meanCell /= n;
+    if (options.cache) (options.cache.meanCell ??= new WeakMap()).set(areaRows, meanCell);
   }
-  meanCell /= n;
   const classifyAt = (taperLevel: Float32Array | number, oceanLevel: Float32Array | number) =>
     classify({
       geometry,

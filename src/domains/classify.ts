@@ -117,11 +117,22 @@ export function classify(inp: ClassifyInput): Classified {
   const proj = (i: number, j: number) => (colToX(g, i) - xc) * inp.oceanward.ex + (rowToY(g, j) - yc) * inp.oceanward.ey;
   // the rim of the data: cells with data on the grid's edge or beside a no-data cell (a grid whose
   // corners are empty, e.g. reprojected, still has seeds)
+  // (one pass with the thick masks: crust at or above each threshold, with forced cells applied)
   const boundary: number[] = [];
+  const mc = new Uint8Array(n);
+  const mo = new Uint8Array(n);
   for (let k = 0; k < n; k++) {
     if (!valid[k]) continue;
     const i = k % nx;
     if (i === 0 || i === nx - 1 || k < nx || k >= n - nx || !valid[k - 1] || !valid[k + 1] || !valid[k - nx] || !valid[k + nx]) boundary.push(k);
+    const f = force ? force[k] : FORCE_NONE;
+    const t = tc[k];
+    if (f === FORCE_CONTINENTAL) mc[k] = t === t ? 1 : 0;
+    else if (f === FORCE_OCEANIC) mo[k] = t === t ? 1 : 0;
+    else if (f === FORCE_NONE && t === t) {
+      if (t >= (taperF ? taperF[k] : taperC)) mc[k] = 1;
+      if (t >= (oceanF ? oceanF[k] : oceanC)) mo[k] = 1;
+    }
   }
   let dmin = Infinity;
   let dmax = -Infinity;
@@ -139,20 +150,6 @@ export function classify(inp: ClassifyInput): Classified {
     if (d >= dmax - band) oceanSeed[k] = 1;
   }
 
-  // Thick masks, with forced cells applied.
-  const mc = new Uint8Array(n);
-  const mo = new Uint8Array(n);
-  for (let k = 0; k < n; k++) {
-    if (!valid[k]) continue;
-    const f = force ? force[k] : FORCE_NONE;
-    const t = tc[k];
-    if (f === FORCE_CONTINENTAL) mc[k] = t === t ? 1 : 0;
-    else if (f === FORCE_OCEANIC) mo[k] = t === t ? 1 : 0;
-    else if (f === FORCE_NONE && t === t) {
-      if (t >= (taperF ? taperF[k] : taperC)) mc[k] = 1;
-      if (t >= (oceanF ? oceanF[k] : oceanC)) mo[k] = 1;
-    }
-  }
   // Oceanic side first: crust at or above the oceanic-limit threshold connected to the oceanward edge.
   const co = components(mo, nx, ny);
   const oceanComp = new Uint8Array(co.count + 1);
@@ -190,6 +187,16 @@ export function classify(inp: ClassifyInput): Classified {
   const SIDE_C = 1;
   const SIDE_O = 2;
   const side = new Uint8Array(n);
+  // what a ray along the oceanward direction (below) meets at each cell, decided with the cell's side:
+  // no data or no Moho stops it unanswered (0); a thin gap, oceanic-side crust or thick continental
+  // crust answer it; anything else it passes through. And the cells the rays start from.
+  const HIT_NONE = 0;
+  const HIT_THICK = 1;
+  const HIT_GAP = 2;
+  const HIT_OCEAN = 3;
+  const PASS = 255;
+  const meets = new Uint8Array(n);
+  const rayFrom: number[] = [];
   let merged = 0;
   // isolated thick components that may be blocks, in the order first met
   const candidate = new Uint8Array(cc.count + 1);
@@ -213,6 +220,12 @@ export function classify(inp: ClassifyInput): Classified {
       candidate[lc] = 1;
       candidates.push(lc);
     }
+    const t = tc[k];
+    const sk = side[k];
+    const ocean = oceanF ? oceanF[k] : oceanC;
+    meets[k] = t !== t ? HIT_NONE : t < (taperF ? taperF[k] : taperC) ? HIT_GAP : sk === SIDE_O ? HIT_OCEAN : sk === SIDE_C && t >= ocean ? HIT_THICK : PASS;
+    // continental-side crust thinner than the oceanic-limit threshold, not forced
+    if (sk === SIDE_C && f === FORCE_NONE && t < ocean) rayFrom.push(k);
   }
   if (merged) {
     warnings.push(
@@ -238,20 +251,6 @@ export function classify(inp: ClassifyInput): Classified {
     const a0 = Math.atan2(ey, ex);
     const dirs = [0, 25, -25].map((d) => [Math.cos(a0 + (d * Math.PI) / 180), Math.sin(a0 + (d * Math.PI) / 180)]);
     const maxSteps = nx + ny;
-    const HIT_NONE = 0;
-    const HIT_THICK = 1;
-    const HIT_GAP = 2;
-    const HIT_OCEAN = 3;
-    // what a ray meets at each cell, decided once (the sides do not change while the rays run):
-    // no data or no Moho stops it unanswered; a thin gap, oceanic-side crust or thick continental
-    // crust answer it; anything else it passes through
-    const PASS = 255;
-    const meets = new Uint8Array(n);
-    for (let q = 0; q < n; q++) {
-      const t = tc[q];
-      const sq = side[q];
-      meets[q] = !valid[q] || t !== t ? HIT_NONE : t < (taperF ? taperF[q] : taperC) ? HIT_GAP : sq === SIDE_O ? HIT_OCEAN : sq === SIDE_C && t >= (oceanF ? oceanF[q] : oceanC) ? HIT_THICK : PASS;
-    }
     const ray = (i0: number, j0: number, di: number, dj: number): number => {
       for (let s = 1; s < maxSteps; s++) {
         const i = Math.round(i0 + di * s);
@@ -270,8 +269,7 @@ export function classify(inp: ClassifyInput): Classified {
       return HIT_NONE;
     };
     const reassigned: number[] = [];
-    for (let k = 0; k < n; k++) {
-      if (side[k] !== SIDE_C || (force && force[k] !== FORCE_NONE) || !(tc[k] < (oceanF ? oceanF[k] : oceanC))) continue;
+    for (const k of rayFrom) {
       const i = k % nx;
       const j = (k - i) / nx;
       const land = march(i, j, -1);
@@ -315,18 +313,17 @@ export function classify(inp: ClassifyInput): Classified {
       b.y = rowToY(g, sumJ[b.label] / b.cells);
     }
   }
+  // Blocks join the continental side; the rest (thin, small blocks, unresolved): enclosure decides.
+  // Moho gaps take no part.
+  const rest = new Uint8Array(n);
   for (let k = 0; k < n; k++) {
     if (!valid[k] || side[k]) continue;
     const lc = cc.labels[k];
     if (lc > 0 && keepBlock[lc] === 1 && !(flags[k] & FLAG_UNRESOLVED)) {
       side[k] = SIDE_C;
       flags[k] |= FLAG_BLOCK;
-    }
+    } else if (tc[k] === tc[k]) rest[k] = 1;
   }
-
-  // The rest (thin, small blocks, unresolved): enclosure decides. Moho gaps take no part.
-  const rest = new Uint8Array(n);
-  for (let k = 0; k < n; k++) if (valid[k] && !side[k] && tc[k] === tc[k]) rest[k] = 1;
   const cr = components(rest, nx, ny);
   const touches = new Uint8Array(cr.count + 1); // bit 1: continental side, bit 2: oceanic side
   for (let k = 0; k < n; k++) {
